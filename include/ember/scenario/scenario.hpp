@@ -1,0 +1,144 @@
+// The typed scenario: what a user asked for, in internal units (GeV^n; see units/constants.hpp).
+// Built from a resolved document (resolve.hpp), so every field is present and valid.
+#pragma once
+
+#include <yaml-cpp/yaml.h>
+
+#include <filesystem>
+#include <optional>
+#include <string>
+#include <variant>
+#include <vector>
+
+namespace ember::scenario {
+
+// --- population -------------------------------------------------------------------------------
+struct Monochromatic {
+  double mass;  // GeV
+};
+struct Lognormal {
+  double peak_mass;  // GeV
+  double width;      // sigma in ln M
+};
+struct PowerLaw {
+  double min_mass, max_mass;  // GeV
+  double exponent;
+};
+struct CriticalCollapse {
+  double cutoff_mass;  // GeV
+  double exponent;
+};
+struct TabulatedSpectrum {
+  std::filesystem::path file;
+  std::string mass_unit;
+};
+using Spectrum = std::variant<Monochromatic, Lognormal, PowerLaw, CriticalCollapse, TabulatedSpectrum>;
+
+enum class AbundanceMeasure { beta, f_pbh, lightcone_count };
+struct Abundance {
+  AbundanceMeasure measure;
+  double value;
+};
+
+struct Population {
+  Spectrum spectrum;
+  Abundance abundance;
+  double collapse_fraction;
+};
+
+// --- Standard Model inputs and the potential ---------------------------------------------------
+struct StandardModelPotential {
+  bool coleman_weinberg;
+  double lambda6, lambda8;
+};
+struct PolynomialPotential {
+  double scale;                      // GeV
+  std::vector<double> coefficients;  // dimensionless, lowest power first
+};
+struct TabulatedPotential {
+  std::filesystem::path file;
+};
+using PotentialForm = std::variant<StandardModelPotential, PolynomialPotential, TabulatedPotential>;
+
+struct StandardModelInputs {
+  double top_mass, higgs_mass, w_mass;  // GeV, pole masses
+  double alpha_s;                       // alpha_s(M_Z)
+  int loops;
+  PotentialForm potential;
+};
+
+// --- evaporation, tunnelling --------------------------------------------------------------------
+enum class GreybodyArgument { energy, momentum };
+struct EvaporationChoices {
+  double qcd_scale;  // GeV
+  GreybodyArgument greybody_argument;
+  double cutoff_mass;  // GeV
+};
+
+enum class Prescription { entropy_drop, probe_field, hot_bubble, no_seed, thin_wall };
+enum class Prefactor { root_action, light_crossing };
+struct TunnellingChoices {
+  std::vector<Prescription> prescriptions;
+  Prefactor prefactor;
+  double semiclassical_floor;          // GeV
+  double hot_bubble_volume;            // in units of 4 pi r_h^3 / 3
+  std::optional<double> wall_tension;  // GeV^3
+  std::optional<double> energy_gap;    // GeV^4
+};
+
+// --- cosmology, scan, exclusion, output --------------------------------------------------------
+struct CosmologyInputs {
+  double hubble;  // h
+  double omega_b_h2, omega_cdm_h2;
+  double cmb_temperature;  // GeV
+  double n_eff;
+};
+
+struct MassGrid {
+  double from, to;  // GeV
+  int points;
+};
+struct BandAxis {
+  double sigma;  // GeV for masses, dimensionless for alpha_s
+  double span;   // in units of sigma
+  int points;
+};
+struct Band {
+  BandAxis top_mass, higgs_mass, alpha_s;
+  std::vector<double> lambda6, lambda8;
+};
+struct ScanChoices {
+  MassGrid masses;
+  std::vector<double> widths;
+  Band band;
+};
+
+struct ExclusionRule {
+  double max_decays;
+};
+
+struct OutputChoices {
+  std::filesystem::path directory;
+  std::vector<std::string> files;
+  std::vector<std::string> plot_formats;
+};
+
+struct Scenario {
+  std::string title;
+  Population population;
+  StandardModelInputs standard_model;
+  EvaporationChoices evaporation;
+  TunnellingChoices tunnelling;
+  CosmologyInputs cosmology;
+  ScanChoices scan;
+  ExclusionRule exclusion;
+  OutputChoices output;
+};
+
+// Reads a resolved document (every key present and valid).
+Scenario read_scenario(const YAML::Node& resolved);
+
+// Names as written in scenarios.
+std::string name_of(Prescription p);
+
+}  // namespace ember::scenario

@@ -1,0 +1,26 @@
+// The command line: each command file adds one subcommand and returns the action to run when
+// it is chosen. The action returns the exit code; errors are thrown and mapped in app.cpp.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <functional>
+#include <nlohmann/json.hpp>
+#include <string>
+
+namespace ember::cli {
+
+struct Command {
+  CLI::App* app;
+  std::function<int()> run;
+};
+
+Command add_check(CLI::App& parent);
+Command add_schema(CLI::App& parent);
+Command add_convert(CLI::App& parent);
+
+// Prints one JSON object on stdout (the --json contract).
+void print_json(const nlohmann::ordered_json& object);
+
+int run(int argc, char** argv);
+
+}  // namespace ember::cli

@@ -1,0 +1,123 @@
+#include <stdexcept>
+
+#include "ember/core/text.hpp"
+#include "ember/scenario/scenario.hpp"
+#include "ember/units/quantity.hpp"
+
+namespace ember::scenario {
+
+namespace {
+
+// The resolved document has already been validated; these only convert canonical text.
+double num(const YAML::Node& n) {
+  return parse_real(n.Scalar()).value();
+}
+int whole(const YAML::Node& n) {
+  return static_cast<int>(parse_whole(n.Scalar()).value());
+}
+double qty(const YAML::Node& n, units::Kind kind) {
+  return units::parse_quantity(n.Scalar(), kind, units::Sign::any).value;
+}
+double mass(const YAML::Node& n) {
+  return qty(n, units::mass);
+}
+std::vector<double> numbers(const YAML::Node& n) {
+  std::vector<double> out;
+  for (const auto& item : n) out.push_back(num(item));
+  return out;
+}
+std::vector<std::string> words(const YAML::Node& n) {
+  std::vector<std::string> out;
+  for (const auto& item : n) out.push_back(item.Scalar());
+  return out;
+}
+
+Spectrum read_spectrum(const YAML::Node& n) {
+  const std::string shape = n["shape"].Scalar();
+  if (shape == "monochromatic") return Monochromatic{mass(n["mass"])};
+  if (shape == "lognormal") return Lognormal{mass(n["peak_mass"]), num(n["width"])};
+  if (shape == "power_law") return PowerLaw{mass(n["min_mass"]), mass(n["max_mass"]), num(n["exponent"])};
+  if (shape == "critical_collapse") return CriticalCollapse{mass(n["cutoff_mass"]), num(n["exponent"])};
+  return TabulatedSpectrum{n["file"].Scalar(), n["mass_unit"].Scalar()};
+}
+
+Abundance read_abundance(const YAML::Node& n) {
+  const std::string m = n["measure"].Scalar();
+  const AbundanceMeasure measure = m == "beta"    ? AbundanceMeasure::beta
+                                   : m == "f_pbh" ? AbundanceMeasure::f_pbh
+                                                  : AbundanceMeasure::lightcone_count;
+  return Abundance{measure, num(n["value"])};
+}
+
+PotentialForm read_potential(const YAML::Node& n) {
+  const std::string form = n["form"].Scalar();
+  if (form == "polynomial") return PolynomialPotential{qty(n["scale"], units::energy), numbers(n["coefficients"])};
+  if (form == "table") return TabulatedPotential{n["file"].Scalar()};
+  return StandardModelPotential{n["coleman_weinberg"].Scalar() == "true", num(n["lambda6"]), num(n["lambda8"])};
+}
+
+Prescription read_prescription(const std::string& s) {
+  for (auto p : {Prescription::entropy_drop, Prescription::probe_field, Prescription::hot_bubble, Prescription::no_seed,
+                 Prescription::thin_wall})
+    if (name_of(p) == s) return p;
+  throw std::logic_error("read_prescription: unvalidated name " + s);
+}
+
+TunnellingChoices read_tunnelling(const YAML::Node& n) {
+  TunnellingChoices t;
+  for (const auto& name : words(n["prescriptions"])) t.prescriptions.push_back(read_prescription(name));
+  t.prefactor = n["prefactor"].Scalar() == "light_crossing" ? Prefactor::light_crossing : Prefactor::root_action;
+  t.semiclassical_floor = mass(n["semiclassical_floor"]);
+  t.hot_bubble_volume = num(n["hot_bubble_volume"]);
+  const YAML::Node wall = n["thin_wall"];
+  if (wall["tension"]) t.wall_tension = qty(wall["tension"], {units::Dimension::energy, 3});
+  if (wall["energy_gap"]) t.energy_gap = qty(wall["energy_gap"], {units::Dimension::energy, 4});
+  return t;
+}
+
+BandAxis read_axis(const YAML::Node& n, bool is_mass) {
+  return BandAxis{is_mass ? mass(n["sigma"]) : num(n["sigma"]), num(n["span"]), whole(n["points"])};
+}
+
+ScanChoices read_scan(const YAML::Node& n) {
+  const YAML::Node m = n["masses"], b = n["band"];
+  return ScanChoices{MassGrid{mass(m["from"]), mass(m["to"]), whole(m["points"])}, numbers(n["widths"]),
+                     Band{read_axis(b["top_mass"], true), read_axis(b["higgs_mass"], true),
+                          read_axis(b["alpha_s"], false), numbers(b["lambda6"]), numbers(b["lambda8"])}};
+}
+
+}  // namespace
+
+std::string name_of(Prescription p) {
+  switch (p) {
+    case Prescription::entropy_drop: return "entropy_drop";
+    case Prescription::probe_field: return "probe_field";
+    case Prescription::hot_bubble: return "hot_bubble";
+    case Prescription::no_seed: return "no_seed";
+    case Prescription::thin_wall: return "thin_wall";
+  }
+  return "";
+}
+
+Scenario read_scenario(const YAML::Node& r) {
+  const YAML::Node pop = r["population"], sm = r["standard_model"], ev = r["evaporation"], cos = r["cosmology"],
+                   out = r["output"];
+  return Scenario{
+      r["title"].Scalar(),
+      Population{read_spectrum(pop["spectrum"]), read_abundance(pop["abundance"]), num(pop["collapse_fraction"])},
+      StandardModelInputs{mass(sm["top_mass"]), mass(sm["higgs_mass"]), mass(sm["w_mass"]), num(sm["alpha_s"]),
+                          whole(sm["loops"]), read_potential(sm["potential"])},
+      EvaporationChoices{
+          qty(ev["qcd_scale"], units::energy),
+          ev["greybody_argument"].Scalar() == "momentum" ? GreybodyArgument::momentum : GreybodyArgument::energy,
+          mass(ev["cutoff_mass"])},
+      read_tunnelling(r["tunnelling"]),
+      CosmologyInputs{num(cos["hubble"]), num(cos["omega_b_h2"]), num(cos["omega_cdm_h2"]),
+                      qty(cos["cmb_temperature"], units::temperature), num(cos["n_eff"])},
+      read_scan(r["scan"]),
+      ExclusionRule{num(r["exclusion"]["max_decays"])},
+      OutputChoices{out["directory"].Scalar(), words(out["files"]), words(out["plot_formats"])},
+  };
+}
+
+}  // namespace ember::scenario

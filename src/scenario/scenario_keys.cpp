@@ -1,0 +1,202 @@
+// Every scenario key, in the order a reader meets them. configs/reference.yaml is generated from
+// this table (`ember schema`), and a test keeps the shipped copy identical.
+//
+// Default values and their sources:
+//   Standard Model inputs: Particle Data Group, Review of Particle Physics, PRD 110 (2024) 030001
+//     (top pole mass from direct measurements 172.57 +- 0.29 GeV; M_h = 125.20 +- 0.11 GeV;
+//      alpha_s(M_Z) = 0.1180 +- 0.0009; M_W = 80.3692 +- 0.0133 GeV).
+//   Cosmology: Planck 2018 VI, A&A 641 (2020) A6, Table 2, TT,TE,EE+lowE+lensing+BAO column
+//     (h = 0.6766, Omega_b h^2 = 0.02242, Omega_c h^2 = 0.11933); T_CMB = 2.7255 K (Fixsen,
+//     ApJ 707 (2009) 916); N_eff = 3.046 (standard-model value used by Planck 2018).
+//   Collapse fraction gamma = 0.2: Carr, ApJ 201 (1975) 1.
+//   Critical-collapse exponent 2.85 in psi ~ M^2.85 exp(-(M/Mf)^2.85): the form used by Carr,
+//     Kuhnel & Sandstad, PRD 94 (2016) 063530, after Niemeyer & Jedamzik, PRL 80 (1998) 5481
+//     (from memory).
+//   Semiclassical floor 1e3 Planck masses: common practice.
+#include <utility>
+
+#include "ember/scenario/schema.hpp"
+
+namespace ember::scenario {
+
+namespace {
+
+using units::Sign;
+
+Key population() {
+  Key spectrum = required(
+      choice("spectrum", "the mass function of the holes at formation", "shape",
+             {
+                 {"monochromatic",
+                  "every hole forms with one mass",
+                  {required(quantity("mass", "formation mass", units::mass, "g", std::nullopt, above(0)), "1e12 g")}},
+                 {"lognormal",
+                  "psi = f / (sqrt(2 pi) width M) exp(-ln^2(M/peak_mass) / (2 width^2))",
+                  {required(quantity("peak_mass", "the mass M_c at the peak of M psi(M)", units::mass, "g",
+                                     std::nullopt, above(0)),
+                            "1e20 g"),
+                   required(number("width", "the width sigma in ln M", std::nullopt, between(0.01, 10)), "0.5")}},
+                 {"power_law",
+                  "psi ~ M^exponent between two cutoffs (scale-invariant radiation-era collapse)",
+                  {required(quantity("min_mass", "lower cutoff", units::mass, "g", std::nullopt, above(0)), "1e9 g"),
+                   required(quantity("max_mass", "upper cutoff", units::mass, "g", std::nullopt, above(0)), "1e15 g"),
+                   number("exponent", "power of M in psi; -3/2 for a radiation era", "-1.5", between(-10, 10))}},
+                 {"critical_collapse",
+                  "psi ~ M^exponent exp(-(M/cutoff_mass)^exponent)",
+                  {required(quantity("cutoff_mass", "the mass M_f where the exponential cut sets in", units::mass, "g",
+                                     std::nullopt, above(0)),
+                            "1e12 g"),
+                   number("exponent", "power of the rise and of the cut", "2.85", above_up_to(0, 20))}},
+                 {"table",
+                  "psi(M) read from a two-column text file (mass, psi)",
+                  {required(input_file("file", "table of mass and psi; lines starting with # are comments"),
+                            "spectrum.tsv"),
+                   option("mass_unit", "unit of the file's mass column", {"g", "kg", "Msun", "Mpl", "GeV"}, "g")}},
+             }),
+      "");
+  spectrum = ordered(std::move(spectrum), {{"min_mass", "max_mass", true}});  // power_law cutoffs
+
+  Key abundance = required(choice("abundance", "how many holes form", "measure",
+                                  {
+                                      {"beta",
+                                       "energy fraction in holes at formation",
+                                       {required(number("value", "beta", std::nullopt, between(0, 1)), "1e-20")}},
+                                      {"f_pbh",
+                                       "fraction of dark matter the holes would make today had none evaporated",
+                                       {required(number("value", "f_PBH", std::nullopt, at_least(0)), "1e-3")}},
+                                      {"lightcone_count",
+                                       "number of holes formed inside our past light cone",
+                                       {required(number("value", "the count", std::nullopt, at_least(0)), "1")}},
+                                  }),
+                           "");
+
+  return section(
+      "population", "the primordial black holes",
+      {spectrum, abundance,
+       number("collapse_fraction", "gamma: formation mass over the horizon mass", "0.2", above_up_to(0, 1))});
+}
+
+Key standard_model() {
+  Key potential = choice(
+      "potential", "the potential the tunnelling codes use", "form",
+      {
+          {"standard_model",
+           "the RG-improved Higgs potential from the inputs above",
+           {flag("coleman_weinberg", "add the one-loop Coleman-Weinberg terms (top, W, Z; Landau gauge)", false),
+            number("lambda6", "coefficient of h^6 / (6 M_Pl^2), a Planck-suppressed operator", "0", any_value()),
+            number("lambda8", "coefficient of h^8 / (8 M_Pl^4), a Planck-suppressed operator", "0", any_value())}},
+          {"polynomial",
+           "V = scale^4 sum_n coefficients[n] (phi / scale)^n, n = 0, 1, 2, ...",
+           {required(quantity("scale", "the field scale", units::energy, "GeV", std::nullopt, above(0)), "1e10 GeV"),
+            [] {
+              Key k = number_list("coefficients", "dimensionless coefficients, lowest power first", any_value(), 1);
+              return required(k, "[0, 0, 0.5, 0, -0.01]");
+            }()}},
+          {"table",
+           "V(phi) read from a two-column text file (phi in GeV, V in GeV^4)",
+           {required(input_file("file", "table of phi and V; lines starting with # are comments"), "potential.tsv")}},
+      },
+      "standard_model");
+
+  return section(
+      "standard_model", "the inputs that fix the Higgs potential",
+      {quantity("top_mass", "top-quark pole mass M_t", units::mass, "GeV", "172.57 GeV", between(150, 200)),
+       quantity("higgs_mass", "Higgs-boson pole mass M_h", units::mass, "GeV", "125.2 GeV", between(100, 150)),
+       number("alpha_s", "strong coupling alpha_s(M_Z), MS-bar, five flavours", "0.118", between(0.1, 0.14)),
+       quantity("w_mass", "W-boson pole mass M_W", units::mass, "GeV", "80.3692 GeV", between(75, 85)),
+       integer("loops", "loop order of the renormalisation-group running", "3", between(1, 3)), potential});
+}
+
+Key evaporation() {
+  return section(
+      "evaporation", "Hawking evaporation",
+      {quantity("qcd_scale", "temperature above which quarks and gluons are emitted freely, pions below", units::energy,
+                "GeV", "0.3 GeV", between(0.1, 1)),
+       option("greybody_argument", "massive species: evaluate greybody factors at the energy or the momentum",
+              {"energy", "momentum"}, "energy"),
+       quantity("cutoff_mass", "mass where numerical integration stops and the analytic end takes over", units::mass,
+                "Mpl", "1e3 Mpl", at_least(1))});
+}
+
+Key tunnelling() {
+  return section(
+      "tunnelling", "seeded vacuum decay",
+      {option_list("prescriptions", "the rate prescriptions to compare, side by side",
+                   {"entropy_drop", "probe_field", "hot_bubble", "no_seed", "thin_wall"},
+                   {"entropy_drop", "probe_field", "hot_bubble", "no_seed"}),
+       option("prefactor", "rate prefactor A in A exp(-B): root_action = (B/2pi)^(1/2)/(G M), light_crossing = 1/(G M)",
+              {"root_action", "light_crossing"}, "root_action"),
+       quantity("semiclassical_floor", "seeds below this mass are flagged as outside the semiclassical regime",
+                units::mass, "Mpl", "1e3 Mpl", at_least(1)),
+       number("hot_bubble_volume", "hot_bubble: nucleation volume in units of the horizon volume 4 pi r_h^3 / 3", "1",
+              above(0)),
+       section("thin_wall", "thin_wall: the wall of a user's thin-wall potential",
+               {with_example(quantity("tension", "wall tension sigma", {units::Dimension::energy, 3}, "GeV^3",
+                                      std::nullopt, above(0)),
+                             "1e30 GeV^3"),
+                with_example(quantity("energy_gap", "false-vacuum minus true-vacuum energy density epsilon",
+                                      {units::Dimension::energy, 4}, "GeV^4", std::nullopt, above(0)),
+                             "1e38 GeV^4")})});
+}
+
+Key cosmology() {
+  return section(
+      "cosmology", "flat Lambda-CDM with radiation",
+      {number("hubble", "h = H0 / (100 km/s/Mpc)", "0.6766", between(0.3, 1.2)),
+       number("omega_b_h2", "baryon density Omega_b h^2", "0.02242", between(0, 0.1)),
+       number("omega_cdm_h2", "cold dark matter density Omega_c h^2", "0.11933", between(0.001, 0.5)),
+       quantity("cmb_temperature", "CMB temperature today", units::temperature, "K", "2.7255 K", between(1, 5)),
+       number("n_eff", "effective number of neutrino species", "3.046", between(0, 10))});
+}
+
+Key band_axis(std::string name, std::string meaning, Key sigma) {
+  return section(
+      std::move(name), std::move(meaning),
+      {std::move(sigma), number("span", "half-width of the band in units of sigma", "2", above(0)),
+       integer("points", "grid points across the band; 1 means the central value only", "1", between(1, 1001))});
+}
+
+Key scan() {
+  Key masses = ordered(section("masses", "grid of formation (or characteristic) masses, logarithmic",
+                               {quantity("from", "lowest mass", units::mass, "g", "1 g", above(0)),
+                                quantity("to", "highest mass", units::mass, "g", "1e15 g", above(0)),
+                                integer("points", "number of masses", "61", between(1, 100000))}),
+                       {{"from", "to", false}});
+  Key band =
+      section("band", "Higgs-input sensitivity band; the axes combine as a grid",
+              {band_axis("top_mass", "top-mass axis",
+                         quantity("sigma", "one standard deviation", units::mass, "GeV", "0.29 GeV", above(0))),
+               band_axis("higgs_mass", "Higgs-mass axis",
+                         quantity("sigma", "one standard deviation", units::mass, "GeV", "0.11 GeV", above(0))),
+               band_axis("alpha_s", "alpha_s axis", number("sigma", "one standard deviation", "0.0009", above(0))),
+               number_list("lambda6", "extra values of lambda6 to scan; empty for none", any_value()),
+               number_list("lambda8", "extra values of lambda8 to scan; empty for none", any_value())});
+  return section(
+      "scan", "what to scan",
+      {masses, number_list("widths", "lognormal widths to scan; empty for the spectrum's own", between(0.01, 10)),
+       band});
+}
+
+Key exclusion() {
+  return section(
+      "exclusion", "when a scenario counts as excluded",
+      {number("max_decays", "excluded when the expected decays in our past light cone exceed this", "1", above(0))});
+}
+
+Key output() {
+  return section("output", "what to write",
+                 {output_path("directory", "folder for results, relative to the current folder", "ember-out"),
+                  option_list("files", "result files to write", {"summary", "constraint", "decay", "resolved", "plots"},
+                              {"summary", "constraint", "decay", "resolved", "plots"}),
+                  option_list("plot_formats", "image formats for plots", {"png", "pdf"}, {"png", "pdf"})});
+}
+
+}  // namespace
+
+Key scenario_schema() {
+  return section("", "an Ember scenario",
+                 {text("title", "a one-line label for reports", ""), population(), standard_model(), evaporation(),
+                  tunnelling(), cosmology(), scan(), exclusion(), output()});
+}
+
+}  // namespace ember::scenario

@@ -1,0 +1,122 @@
+#!/usr/bin/env bash
+# The command line as users run it: exit codes, the stdout/stderr split, --json, atomic output.
+# Usage: test_cli.sh EMBER_BINARY SOURCE_DIR
+set -u
+ember=$1
+src=$2
+work=$(mktemp -d)
+trap 'rm -rf "$work"' EXIT
+failures=0
+
+fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
+
+# run NAME EXPECTED_CODE -- command...   (stdout to $work/out, stderr to $work/err)
+run() {
+  local name=$1 expected=$2
+  shift 3
+  "$@" >"$work/out" 2>"$work/err"
+  local code=$?
+  [[ $code == "$expected" ]] || fail "$name: exit $code, expected $expected; stderr: $(head -c 400 "$work/err")"
+}
+stdout_has() { grep -qF -- "$2" "$work/out" || fail "$1: stdout lacks '$2'"; }
+stderr_has() { grep -qF -- "$2" "$work/err" || fail "$1: stderr lacks '$2'"; }
+stdout_empty() { [[ ! -s "$work/out" ]] || fail "$1: stdout should be empty: $(head -c 200 "$work/out")"; }
+# JSON outputs are kept and parsed together at the end (one Python start-up instead of dozens).
+mkdir -p "$work/json"
+json_count=0
+json_ok() { json_count=$((json_count + 1)); cp "$work/out" "$work/json/$json_count.json"; echo "$1" >"$work/json/$json_count.name"; }
+
+# --- help and version --------------------------------------------------------------------------
+run help 0 -- "$ember" --help
+stdout_has help "check"
+stdout_has help "Exit codes"
+run version 0 -- "$ember" --version
+stdout_has version "ember 0."
+for cmd in check schema convert; do
+  run "$cmd --help" 0 -- "$ember" "$cmd" --help
+  stdout_has "$cmd --help" "--json"
+done
+run "no command" 2 -- "$ember"
+run "unknown option" 2 -- "$ember" check --frobnicate "$src/configs/demo.yaml"
+
+# --- check: good scenarios ---------------------------------------------------------------------
+run "check demo" 0 -- "$ember" check "$src/configs/demo.yaml"
+stdout_has "check demo" "peak_mass: 1e9 g"
+stdout_has "check demo" "top_mass: 172.57 GeV"
+stderr_has "check demo" "valid scenario"
+run "check demo --json" 0 -- "$ember" check "$src/configs/demo.yaml" --json
+json_ok "check demo --json"
+stdout_has "check demo --json" '"valid": true'
+run "check reference" 0 -- "$ember" check "$src/configs/reference.yaml"
+
+# --resolved writes a file that itself checks, and prints the same resolved text.
+run "check --resolved" 0 -- "$ember" check "$src/configs/demo.yaml" --resolved "$work/res/demo.resolved.yaml"
+cp "$work/out" "$work/first.yaml"
+[[ -f "$work/res/demo.resolved.yaml" ]] || fail "check --resolved: no file written"
+cmp -s "$work/first.yaml" "$work/res/demo.resolved.yaml" || fail "check --resolved: file differs from stdout"
+ls -a "$work/res" | grep -q '\.tmp\.' && fail "check --resolved: temporary file left behind"
+
+# --- check: every bad scenario exits 2, names its line and key, writes nothing -----------------
+while IFS=$'\t' read -r file line key fragment; do
+  [[ -z "$file" || "$file" == \#* ]] && continue
+  path="$src/tests/data/bad/$file"
+  run "bad $file" 2 -- "$ember" check "$path" --resolved "$work/never/$file"
+  stdout_empty "bad $file"
+  stderr_has "bad $file" "$path:$line:"
+  stderr_has "bad $file" ": $key: "
+  [[ -e "$work/never/$file" ]] && fail "bad $file: a resolved file was written"
+  run "bad $file --json" 2 -- "$ember" check "$path" --json
+  json_ok "bad $file --json"
+  stdout_has "bad $file --json" '"valid": false'
+  stdout_has "bad $file --json" "\"line\": $line"
+done <"$src/tests/data/bad/expectations.tsv"
+
+run "missing file" 2 -- "$ember" check "$work/nothing-here.yaml"
+stderr_has "missing file" "no such file"
+run "directory" 2 -- "$ember" check "$src/configs"
+stderr_has "directory" "is a directory"
+run "unwritable --resolved" 2 -- "$ember" check "$src/configs/demo.yaml" --resolved "$src/configs"
+stderr_has "unwritable --resolved" "cannot write"
+stdout_empty "unwritable --resolved"
+
+# --- schema -------------------------------------------------------------------------------------
+run schema 0 -- "$ember" schema
+cmp -s "$work/out" "$src/configs/reference.yaml" || fail "schema: output differs from configs/reference.yaml"
+run "schema --json" 0 -- "$ember" schema --json
+json_ok "schema --json"
+
+# --- convert ------------------------------------------------------------------------------------
+run "convert mass" 0 -- "$ember" convert "1e15 g" --to kg --json
+json_ok "convert mass"
+cp "$work/out" "$work/convert.json"
+run "convert time" 0 -- "$ember" convert "13.787 Gyr"
+stdout_has "convert time" "yr"
+run "convert bad unit" 2 -- "$ember" convert "1e15 grams"
+stderr_has "convert bad unit" 'unknown unit "grams"'
+run "convert wrong --to" 2 -- "$ember" convert "1e15 g" --to s
+stderr_has "convert wrong --to" "not a unit"
+
+# Every --json output is exactly one JSON object; 1e15 g is 1e12 kg.
+python3 - "$work" <<'PY' || failures=$((failures + 1))
+import json, pathlib, sys
+work = pathlib.Path(sys.argv[1])
+bad = 0
+for f in sorted((work / "json").glob("*.json")):
+    try:
+        obj = json.loads(f.read_text())
+        assert isinstance(obj, dict)
+    except Exception as e:
+        print(f"FAIL: {f.with_suffix('.name').read_text().strip()}: stdout is not one JSON object ({e})")
+        bad += 1
+kg = json.loads((work / "convert.json").read_text())["values"]["kg"]
+if abs(kg - 1e12) > 1e-3:
+    print(f"FAIL: convert: 1e15 g gave {kg} kg, not 1e12")
+    bad += 1
+sys.exit(1 if bad else 0)
+PY
+
+if ((failures > 0)); then
+  echo "$failures failure(s)"
+  exit 1
+fi
+echo "all command-line checks passed"

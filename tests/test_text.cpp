@@ -1,0 +1,41 @@
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+#include "ember/core/text.hpp"
+
+using namespace ember;
+
+TEST_CASE("edit distance and suggestions") {
+  CHECK(edit_distance("kitten", "sitting") == 3);  // the textbook example (Levenshtein 1966)
+  CHECK(edit_distance("", "abc") == 3);
+  CHECK(closest_match("widht", {"width", "peak_mass"}) == "width");
+  CHECK(closest_match("gev", {"g", "GeV", "TeV"}) == "GeV");
+  CHECK(closest_match("zzzzzz", {"width", "peak_mass"}).empty());
+}
+
+TEST_CASE("numbers are parsed strictly and printed shortest") {
+  CHECK(parse_real("1e-20") == 1e-20);
+  CHECK(parse_real("+2.5") == 2.5);
+  CHECK_FALSE(parse_real("2.5x"));
+  CHECK_FALSE(parse_real("nan"));
+  CHECK_FALSE(parse_real("inf"));
+  CHECK_FALSE(parse_real(""));
+  CHECK(parse_whole("61") == 61);
+  CHECK_FALSE(parse_whole("2.5"));
+  CHECK(format_real(1e12) == "1e12");
+  CHECK(format_real(0.2) == "0.2");
+  CHECK(format_real(172.57) == "172.57");
+  CHECK(format_real(2.5e-5) == "2.5e-5");
+  CHECK(format_real(150) == "150");
+  CHECK(format_real(0) == "0");
+  for (double x : {1.0 / 3.0, 6.02214076e23, -1.602176634e-19, 123456789.0, 5.0e-324, 1.7976931348623157e308})
+    CHECK(parse_real(format_real(x)) == x);
+}
+
+TEST_CASE("alternatives read as a sentence") {
+  CHECK(join_alternatives({"a"}) == "a");
+  CHECK(join_alternatives({"a", "b", "c"}) == "a, b or c");
+  CHECK(join_alternatives({"a", "b"}, "and") == "a and b");
+  CHECK(trim("  x y \n") == "x y");
+}
