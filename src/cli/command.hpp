@@ -17,6 +17,7 @@ struct Command {
 Command add_check(CLI::App& parent);
 Command add_schema(CLI::App& parent);
 Command add_convert(CLI::App& parent);
+Command add_greybody(CLI::App& parent);
 
 // Prints one JSON object on stdout (the --json contract).
 void print_json(const nlohmann::ordered_json& object);

@@ -96,6 +96,28 @@ stderr_has "convert bad unit" 'unknown unit "grams"'
 run "convert wrong --to" 2 -- "$ember" convert "1e15 g" --to s
 stderr_has "convert wrong --to" "not a unit"
 
+# --- greybody -------------------------------------------------------------------------------------
+run "greybody lookup" 0 -- "$ember" greybody --spin 0.5 --l 0.5 --x 0.1 --solve --json
+json_ok "greybody lookup"
+cp "$work/out" "$work/greybody.json"
+run "greybody lookup text" 0 -- "$ember" greybody --spin 1 --l 1 --x 0.2
+stdout_has "greybody lookup text" "transmission (table)"
+run "greybody power" 0 -- "$ember" greybody --power --json
+json_ok "greybody power"
+cp "$work/out" "$work/power.json"
+run "greybody bad spin" 2 -- "$ember" greybody --spin 1.5 --l 1.5 --x 0.1
+stderr_has "greybody bad spin" "expected 0, 0.5, 1 or 2"
+run "greybody l not in table" 2 -- "$ember" greybody --spin 0 --l 30 --x 0.1
+stderr_has "greybody l not in table" "not in the table"
+run "greybody missing x" 2 -- "$ember" greybody --spin 0 --l 0
+run "greybody bad table" 2 -- "$ember" greybody --table "$src/tests/data/bad_tables/bad_number.tsv" --spin 0 --l 0 --x 0.1
+stderr_has "greybody bad table" "bad_number.tsv:29:"
+# The table that ships is the one --rebuild writes, byte for byte.
+run "greybody rebuild" 0 -- "$ember" greybody --rebuild --quiet --output "$work/greybody.tsv"
+cmp -s "$work/greybody.tsv" "$src/data/greybody.tsv" || fail "greybody rebuild: output differs from data/greybody.tsv"
+run "greybody rebuild unwritable" 2 -- "$ember" greybody --rebuild --quiet --output "$src/configs"
+stderr_has "greybody rebuild unwritable" "cannot write"
+
 # Every --json output is exactly one JSON object; 1e15 g is 1e12 kg.
 python3 - "$work" <<'PY' || failures=$((failures + 1))
 import json, pathlib, sys
@@ -111,6 +133,20 @@ for f in sorted((work / "json").glob("*.json")):
 kg = json.loads((work / "convert.json").read_text())["values"]["kg"]
 if abs(kg - 1e12) > 1e-3:
     print(f"FAIL: convert: 1e15 g gave {kg} kg, not 1e12")
+    bad += 1
+g = json.loads((work / "greybody.json").read_text())
+for key in ("spin", "l", "x", "transmission", "error", "solved"):
+    if key not in g:
+        print(f"FAIL: greybody --json lacks {key}")
+        bad += 1
+p = json.loads((work / "power.json").read_text())
+for spin in ("0", "0.5", "1", "2"):
+    if not {"power", "number"} <= set(p.get(spin, {})):
+        print(f"FAIL: greybody --power --json lacks power/number for spin {spin}")
+        bad += 1
+# Page, PRD 13 (1976) 198: 4.09e-5 per neutrino state, within 0.5%.
+if abs(p["0.5"]["power"] / 4.09e-5 - 1) > 5e-3:
+    print(f"FAIL: spin-1/2 power {p['0.5']['power']} is not Page's 4.09e-5")
     bad += 1
 sys.exit(1 if bad else 0)
 PY

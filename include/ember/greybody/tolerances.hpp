@@ -1,0 +1,31 @@
+// Every tolerance of the greybody module, in one place, with the rule it enforces.
+// Units: G = c = hbar = M = 1 (see mode.hpp).
+#pragma once
+
+namespace ember::greybody::tolerance {
+
+// ODE integration (Boost.Odeint, Runge-Kutta-Fehlberg 7(8)): a step is accepted when its error
+// estimate is below abs + rel * |state|, componentwise. The fine solve uses `ode_relative`, the
+// check solve 100 times looser; their difference is part of the reported error.
+inline constexpr double ode_relative = 1e-11;
+inline constexpr double ode_check_factor = 100.0;
+inline constexpr double ode_absolute_fraction = 1e-3;  // abs = rel * this (|psi| starts at 1)
+
+// Start of integration near the horizon: the first-order correction delta = V/(kappa^2 - 2 i omega
+// kappa) is included, so the start is moved inward until |delta| < this; the neglected
+// second-order term is then ~ delta^2.
+inline constexpr double horizon_correction = 1e-8;
+
+// Matching to the asymptotic series e^{+-i omega r*} sum c_n r^-n far out: the matching radius is
+// doubled until the smallest term of the series is below this (its truncation error).
+inline constexpr double series_truncation = 1e-13;
+inline constexpr int series_max_terms = 80;
+
+// Tabulation: an (s, l) mode is tabulated up to the x where 1 - Gamma < this (Gamma = 1 beyond),
+inline constexpr double unit_transmission = 1e-14;
+// and partial waves are added until a further l adds less than this fraction of the total power.
+inline constexpr double power_fraction_cut = 1e-6;
+// Interpolated values must match direct solves to this relative accuracy over the table's range.
+inline constexpr double interpolation_relative = 1e-4;
+
+}  // namespace ember::greybody::tolerance

@@ -1,0 +1,60 @@
+// Benchmarks of in-process workloads, run by scripts/bench. Prints one tab-separated line per
+// workload: name, wall seconds per run, runs, and a throughput note. Targets live in
+// scripts/bench, never in tests.
+#include <fmt/format.h>
+
+#include <chrono>
+#include <functional>
+
+#include "ember/greybody/emission.hpp"
+#include "ember/greybody/solver.hpp"
+#include "ember/greybody/table.hpp"
+
+namespace {
+
+using clock_type = std::chrono::steady_clock;
+
+void report(const std::string& name, int runs, const std::function<void()>& work, const std::string& unit = "") {
+  work();  // warm up (caches, lazy loads)
+  const auto start = clock_type::now();
+  for (int i = 0; i < runs; ++i) work();
+  const double per_run = std::chrono::duration<double>(clock_type::now() - start).count() / runs;
+  fmt::print("{}\t{:.6e}\t{}\t{}\n", name, per_run, runs,
+             unit.empty() ? "" : fmt::format("{:.3g} {}", 1.0 / per_run, unit));
+}
+
+}  // namespace
+
+int main() {
+  using namespace ember::greybody;
+  volatile double sink = 0;
+  for (const double x : {0.001, 0.1, 1.0, 5.0})
+    report(
+        fmt::format("greybody: one direct solve, spin 1, l = 1, x = {}", x), 50,
+        [&] { sink = sink + solve_transmission(make_mode(1, 1), x).value; }, "solves/s");
+  BuildOptions quiet;
+  quiet.quiet = true;
+  report("greybody: full table rebuild (in process, one core)", 3,
+         [&] { sink = sink + build_table(quiet).rows().size(); });
+  const Table table = load_default_table();
+  report("greybody: load data/greybody.tsv", 20, [&] { sink = sink + load_default_table().rows().size(); });
+  double x = 1e-3;
+  report(
+      "greybody: one interpolated lookup", 1000000,
+      [&] {
+        x = x * 1.0001 > 5 ? 1e-3 : x * 1.0001;
+        sink = sink + table.transmission(2, 2, x).value;
+      },
+      "lookups/s");
+  report(
+      "greybody: sum over l at one x (spin 1/2)", 200000,
+      [&] {
+        x = x * 1.0001 > 5 ? 1e-3 : x * 1.0001;
+        sink = sink + table.weighted_sum(1, x).value;
+      },
+      "sums/s");
+  report("greybody: power and number coefficients, all spins", 20, [&] {
+    for (int ts : {0, 1, 2, 4}) sink = sink + emission_per_dof(table, ts).power.value;
+  });
+  return sink == 12345.0;  // keeps the work from being optimised away
+}

@@ -1,0 +1,206 @@
+// Greybody factors: limits from the literature, internal consistency, and the shipped table.
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <filesystem>
+
+#include "ember/core/errors.hpp"
+#include "ember/greybody/emission.hpp"
+#include "ember/greybody/solver.hpp"
+#include "ember/greybody/table.hpp"
+#include "support.hpp"
+
+using namespace ember::greybody;
+using ember::testing::close;
+using ember::testing::source_dir;
+
+namespace {
+constexpr double pi = 3.141592653589793;
+
+Mode mode_of(double spin, double l, Potential p) {
+  Mode m = make_mode(spin, l);
+  m.potential = p;
+  return m;
+}
+
+double gamma(double spin, double l, double x) {
+  return solve_transmission(make_mode(spin, l), x).value;
+}
+
+const Table& shipped() {
+  static const Table table = load_table(source_dir / "data/greybody.tsv");
+  return table;
+}
+}  // namespace
+
+TEST_CASE("low-frequency limits") {
+  const double x = 1e-5;
+  // s = 0, l = 0: sigma = pi Gamma / omega^2 -> the horizon area 16 pi M^2, i.e. Gamma -> 16 x^2
+  // (Das, Gibbons & Mathur, PRL 78 (1997) 417).
+  CHECK(close(pi * gamma(0, 0, x) / (x * x), 16 * pi, 1e-3));
+  // s = 1/2: sigma = (pi/omega^2) sum_j (2j+1) Gamma_j -> 2 pi M^2 (Doran, Lasenby, Dolan & Hinder,
+  // PRD 71 (2005) 124020); the j = 1/2 wave carries it: 2 pi Gamma / x^2 -> 2 pi.
+  CHECK(close(pi * 2 * gamma(0.5, 0.5, x) / (x * x), 2 * pi, 1e-3));
+  // Leading powers: x^4 for s = 1, l = 1 and x^6 for s = 2, l = 2 (Page, PRD 13 (1976) 198); in
+  // general x^(2l+2) for bosons and x^(2j+1) for spin 1/2 (same source).
+  const auto slope = [](double s, double l) { return std::log(gamma(s, l, 2e-5) / gamma(s, l, 1e-5)) / std::log(2.0); };
+  CHECK(slope(1, 1) == doctest::Approx(4).epsilon(1e-3));
+  CHECK(slope(2, 2) == doctest::Approx(6).epsilon(1e-3));
+  CHECK(slope(0, 2) == doctest::Approx(6).epsilon(1e-3));
+  CHECK(slope(0.5, 1.5) == doctest::Approx(4).epsilon(1e-3));
+}
+
+TEST_CASE("high-frequency limit: the capture cross-section 27 pi M^2") {
+  // sigma_total = sum_l (2l+1) pi Gamma_l / omega^2 -> 27 pi M^2, the geometric-optics capture
+  // cross-section of the photon sphere (common practice; Misner, Thorne & Wheeler (1973) sec. 25.6).
+  // The approach oscillates with an amplitude falling as 1/x; at x = 8 it is below 0.3%.
+  for (const int ts : {0, 1, 2, 4}) {
+    CAPTURE(ts);
+    double sum = 0;
+    for (Mode m = lowest_mode(ts);; m.twice_l += 2) {
+      const double g = solve_transmission(m, 8.0).value;
+      sum += m.degeneracy() * g;
+      if (g < 1e-13) break;
+    }
+    CHECK(close(pi * sum / 64.0, 27 * pi, 5e-3));
+  }
+}
+
+TEST_CASE("emission per degree of freedom matches Page 1976") {
+  // Page, PRD 13 (1976) 198: total 2.011e-4 hbar c^6/(G^2 M^2) for four two-component neutrino
+  // states, two photon and two graviton helicities, split 81% / 17% / 2%; per state:
+  const Emission nu = emission_per_dof(shipped(), 1), photon = emission_per_dof(shipped(), 2),
+                 graviton = emission_per_dof(shipped(), 4), scalar = emission_per_dof(shipped(), 0);
+  CHECK(close(nu.power.value, 4.09e-5, 5e-3));
+  CHECK(close(photon.power.value, 1.69e-5, 1e-2));
+  CHECK(close(graviton.power.value, 1.9e-6, 3e-2));
+  CHECK(close(4 * nu.power.value + 2 * photon.power.value + 2 * graviton.power.value, 2.011e-4, 5e-3));
+  // Massless scalar: 7.44e-5 (Taylor, Chambers & Hiscock, PRD 58 (1998) 044012).
+  CHECK(close(scalar.power.value, 7.44e-5, 5e-3));
+  // The quoted errors are small against these tolerances.
+  CHECK(nu.power.error < 1e-4 * nu.power.value);
+  CHECK(photon.number.error < 1e-4 * photon.number.value);
+}
+
+TEST_CASE("flux conservation |T|^2 + |R|^2 = 1 (derived: the Wronskian is conserved)") {
+  for (double s : {0.0, 0.5, 1.0, 2.0})
+    for (double x : {1e-3, 0.05, 0.2, 0.4, 1.0, 3.0}) {
+      const Mode m = make_mode(s, s == 0.5 ? 1.5 : std::max(s, 1.0));
+      const Transmission t = solve_transmission(m, x);
+      CAPTURE(t.summary.message);
+      CHECK(t.flux_defect < 1e-8);
+      CHECK(t.summary.status == SolveStatus::converged);
+    }
+}
+
+TEST_CASE("superpartner and polar potentials transmit alike (derived; issue 3)") {
+  for (double x : {0.01, 0.1, 0.25, 0.5, 1.0}) {
+    CAPTURE(x);
+    for (double j : {0.5, 1.5, 3.5}) {
+      const double plus = solve_transmission(mode_of(0.5, j, Potential::dirac_plus), x).value;
+      const double minus = solve_transmission(mode_of(0.5, j, Potential::dirac_minus), x).value;
+      CHECK(close(plus, minus, 1e-7));
+    }
+    for (double l : {2.0, 3.0, 5.0}) {
+      const double axial = solve_transmission(mode_of(2, l, Potential::regge_wheeler), x).value;
+      const double polar = solve_transmission(mode_of(2, l, Potential::zerilli), x).value;
+      CHECK(close(axial, polar, 1e-7));
+    }
+  }
+}
+
+TEST_CASE("solutions converge as the tolerance is refined, within their stated error") {
+  for (double x : {0.002, 0.15, 0.6}) {
+    const Mode m = make_mode(1, 2);
+    SolverOptions loose, tight;
+    loose.ode_relative = 1e-8;
+    tight.ode_relative = 1e-13;
+    const Transmission a = solve_transmission(m, x, loose), b = solve_transmission(m, x, {}),
+                       c = solve_transmission(m, x, tight);
+    CAPTURE(x);
+    CHECK(std::abs(a.value - c.value) <= a.error + c.error);
+    CHECK(std::abs(b.value - c.value) <= b.error + c.error);
+    CHECK(std::abs(b.value - c.value) <= std::abs(a.value - c.value) + 1e-15 * c.value);
+    CHECK(b.error < 1e-6 * b.value);
+  }
+}
+
+TEST_CASE("solver options are validated by name") {
+  SolverOptions o;
+  o.ode_relative = 0.5;
+  CHECK_THROWS_WITH_AS(o.validate(), doctest::Contains("ode_relative"), ember::InputError);
+  CHECK_THROWS_AS(solve_transmission(make_mode(0, 0), -1.0), ember::InputError);
+  CHECK_THROWS_AS(make_mode(1.5, 1.5), ember::InputError);
+  CHECK_THROWS_AS(make_mode(1, 0), ember::InputError);
+  CHECK_THROWS_AS(make_mode(0.5, 1), ember::InputError);
+}
+
+TEST_CASE("the shipped table interpolates direct solves to 1e-4 over 1e-3 <= x <= 5") {
+  const Table& t = shipped();
+  CHECK(t.header().interpolation_error < 1e-4);
+  const auto& rows = t.rows();
+  int checked = 0;
+  for (std::size_t i = 0; i + 1 < rows.size(); i += 5) {
+    if (rows[i + 1].twice_spin != rows[i].twice_spin || rows[i + 1].twice_l != rows[i].twice_l) continue;
+    const double x = std::sqrt(rows[i].x * rows[i + 1].x);
+    const Mode m{rows[i].twice_spin, rows[i].twice_l,
+                 rows[i].twice_spin == 1 ? Potential::dirac_plus : Potential::regge_wheeler};
+    const double direct = solve_transmission(m, x).value;
+    const ember::Estimate looked = t.transmission(m.twice_spin, m.twice_l, x);
+    CAPTURE(describe(m));
+    CAPTURE(x);
+    CHECK(std::abs(looked.value - direct) <= 1e-4 * direct);
+    CHECK(std::abs(looked.value - direct) <= looked.error + 1e-12 * direct);
+    ++checked;
+  }
+  CHECK(checked > 100);
+  // Beyond each mode's last row Gamma = 1: check up to x = 5.
+  for (const int ts : {0, 1, 2, 4})
+    for (const int tl : t.twice_ls(ts)) {
+      const Mode m{ts, tl, ts == 1 ? Potential::dirac_plus : Potential::regge_wheeler};
+      CHECK(std::abs(t.transmission(ts, tl, 5.0).value - solve_transmission(m, 5.0).value) < 1e-4);
+    }
+}
+
+TEST_CASE("below the table, the power-law tail is honest about its error") {
+  for (const int ts : {0, 1, 2, 4}) {
+    const Mode m = lowest_mode(ts);
+    const ember::Estimate looked = shipped().transmission(ts, m.twice_l, 1e-4);
+    const double direct = solve_transmission(m, 1e-4).value;
+    CAPTURE(describe(m));
+    CHECK(std::abs(looked.value - direct) <= looked.error);
+    CHECK(std::abs(looked.value - direct) <= 1e-2 * direct);
+  }
+}
+
+TEST_CASE("the table holds each spin up to where further l add under 1e-6 of the power") {
+  // The build rule (issue 3): the last tabulated l of each spin carries under 1e-6 of its power,
+  // and the one before it more.
+  for (const int ts : {0, 1, 2, 4}) {
+    const auto ls = shipped().twice_ls(ts);
+    const auto share = [&](int tl) {
+      const std::function<ember::Estimate(double)> one = [&](double x) {
+        return ember::Estimate{(tl + 1) * shipped().transmission(ts, tl, x).value, 0};
+      };
+      return thermal_moment(one, ts % 2 == 1, 1).value / emission_per_dof(shipped(), ts).power.value;
+    };
+    CAPTURE(ts);
+    REQUIRE(ls.size() >= 2);
+    CHECK(share(ls.back()) < 1e-6);
+    CHECK(share(ls[ls.size() - 2]) >= 1e-6);
+  }
+}
+
+TEST_CASE("malformed tables are rejected with the file and line") {
+  const auto dir = source_dir / "tests/data/bad_tables";
+  const std::pair<const char*, const char*> cases[] = {
+      {"bad_number.tsv", ":29: field 3 is \"abc\""}, {"five_fields.tsv", ":28: 5 fields"},
+      {"x_not_increasing.tsv", ":29: x 1e-3 after"}, {"bad_spin.tsv", ":28: spin 0.7"},
+      {"missing_key.tsv", "interpolation_error"},    {"transmission_above_one.tsv", ":28: transmission 1.6"},
+  };
+  for (const auto& [file, fragment] : cases) {
+    CAPTURE(file);
+    CHECK_THROWS_WITH_AS(load_table(dir / file), doctest::Contains(fragment), ember::InputError);
+  }
+  CHECK_THROWS_WITH_AS(load_table(dir / "no-such.tsv"), doctest::Contains("cannot be read"), ember::InputError);
+}
