@@ -69,8 +69,8 @@ TEST_CASE("every variant reads into its typed form") {
     CHECK(p.exponent == -1.5);
     CHECK(s.population.abundance.value == 0);
     CHECK(close(s.cosmology.cmb_temperature, 2.35e-13));
-    CHECK(close(s.evaporation.qcd_scale, 0.25));
-    CHECK(s.evaporation.greybody_argument == GreybodyArgument::momentum);
+    CHECK(close(s.evaporation.mass_loss.qcd_scale, 0.25));
+    CHECK(s.evaporation.mass_loss.argument == ember::evaporation::GreybodyArgument::momentum);
     CHECK(std::holds_alternative<StandardModelPotential>(s.standard_model.potential));
   }
 }

@@ -14,6 +14,14 @@ void print_json(const nlohmann::ordered_json& object) {
   std::cout << object.dump(2) << "\n";
 }
 
+double quantity_option(const std::string& option, const std::string& text, units::Kind kind, units::Sign sign) {
+  try {
+    return units::parse_quantity(text, kind, sign).value;
+  } catch (const units::QuantityError& e) {
+    throw InputError(option + " " + e.what());
+  }
+}
+
 namespace {
 
 int report(const std::string& kind, const std::string& message, int code) {
@@ -35,7 +43,8 @@ int run(int argc, char** argv) {
       "Exit codes: 0 success, 1 internal error, 2 bad input, 3 numerical failure.\n"
       "Every command that prints results takes --json for one JSON object on stdout.");
 
-  const std::vector<Command> commands{add_check(app), add_schema(app), add_convert(app), add_greybody(app)};
+  const std::vector<Command> commands{add_check(app), add_schema(app), add_convert(app), add_greybody(app),
+                                      add_evaporate(app)};
 
   try {
     app.parse(argc, argv);

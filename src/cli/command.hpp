@@ -7,6 +7,8 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
+#include "ember/units/quantity.hpp"
+
 namespace ember::cli {
 
 struct Command {
@@ -18,6 +20,11 @@ Command add_check(CLI::App& parent);
 Command add_schema(CLI::App& parent);
 Command add_convert(CLI::App& parent);
 Command add_greybody(CLI::App& parent);
+Command add_evaporate(CLI::App& parent);
+
+// A quantity given on the command line, in internal units; errors name the option.
+double quantity_option(const std::string& option, const std::string& text, units::Kind kind,
+                       units::Sign sign = units::Sign::positive);
 
 // Prints one JSON object on stdout (the --json contract).
 void print_json(const nlohmann::ordered_json& object);

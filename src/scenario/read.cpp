@@ -75,6 +75,15 @@ TunnellingChoices read_tunnelling(const YAML::Node& n) {
   return t;
 }
 
+EvaporationChoices read_evaporation(const YAML::Node& n) {
+  EvaporationChoices e;
+  e.mass_loss.qcd_scale = qty(n["qcd_scale"], units::energy);
+  e.mass_loss.argument = n["greybody_argument"].Scalar() == "momentum" ? evaporation::GreybodyArgument::momentum
+                                                                       : evaporation::GreybodyArgument::energy;
+  e.trajectory.cutoff_mass = mass(n["cutoff_mass"]);
+  return e;
+}
+
 BandAxis read_axis(const YAML::Node& n, bool is_mass) {
   return BandAxis{is_mass ? mass(n["sigma"]) : num(n["sigma"]), num(n["span"]), whole(n["points"])};
 }
@@ -107,10 +116,7 @@ Scenario read_scenario(const YAML::Node& r) {
       Population{read_spectrum(pop["spectrum"]), read_abundance(pop["abundance"]), num(pop["collapse_fraction"])},
       StandardModelInputs{mass(sm["top_mass"]), mass(sm["higgs_mass"]), mass(sm["w_mass"]), num(sm["alpha_s"]),
                           whole(sm["loops"]), read_potential(sm["potential"])},
-      EvaporationChoices{
-          qty(ev["qcd_scale"], units::energy),
-          ev["greybody_argument"].Scalar() == "momentum" ? GreybodyArgument::momentum : GreybodyArgument::energy,
-          mass(ev["cutoff_mass"])},
+      read_evaporation(ev),
       read_tunnelling(r["tunnelling"]),
       CosmologyInputs{num(cos["hubble"]), num(cos["omega_b_h2"]), num(cos["omega_cdm_h2"]),
                       qty(cos["cmb_temperature"], units::temperature), num(cos["n_eff"])},

@@ -13,6 +13,8 @@
 //     Kuhnel & Sandstad, PRD 94 (2016) 063530, after Niemeyer & Jedamzik, PRL 80 (1998) 5481
 //     (from memory).
 //   Semiclassical floor 1e3 Planck masses: common practice.
+//   QCD scale 0.3 GeV: MacGibbon & Webber, PRD 41 (1990) 3052, take Lambda_QCD ~ 250-300 MeV for
+//     the onset of quark and gluon emission (from memory).
 #include <utility>
 
 #include "ember/scenario/schema.hpp"
@@ -110,8 +112,8 @@ Key standard_model() {
 Key evaporation() {
   return section(
       "evaporation", "Hawking evaporation",
-      {quantity("qcd_scale", "temperature above which quarks and gluons are emitted freely, pions below", units::energy,
-                "GeV", "0.3 GeV", between(0.1, 1)),
+      {quantity("qcd_scale", "confinement scale: quarks and gluons are emitted at energies above it, pions below",
+                units::energy, "GeV", "0.3 GeV", between(0.1, 1)),
        option("greybody_argument", "massive species: evaluate greybody factors at the energy or the momentum",
               {"energy", "momentum"}, "energy"),
        quantity("cutoff_mass", "mass where numerical integration stops and the analytic end takes over", units::mass,

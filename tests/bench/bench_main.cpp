@@ -4,9 +4,12 @@
 #include <fmt/format.h>
 
 #include <chrono>
+#include <cmath>
 #include <functional>
 
+#include "ember/evaporation/trajectory.hpp"
 #include "ember/greybody/emission.hpp"
+#include "ember/units/constants.hpp"
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
 
@@ -55,6 +58,21 @@ int main() {
       "sums/s");
   report("greybody: power and number coefficients, all spins", 20, [&] {
     for (int ts : {0, 1, 2, 4}) sink = sink + emission_per_dof(table, ts).power.value;
+  });
+  using namespace ember::evaporation;
+  const ParticleSet particles = load_default_particles();
+  report("evaporation: build the f(M) table (energy option)", 10,
+         [&] { sink = sink + MassLoss(table, particles).alpha(1e30); });
+  MassLossOptions momentum;
+  momentum.argument = GreybodyArgument::momentum;
+  report("evaporation: build the f(M) table (momentum option)", 1,
+         [&] { sink = sink + MassLoss(table, particles, momentum).alpha(1e30); });
+  const MassLoss ml(table, particles);
+  const double gram = ember::units::gram;
+  report("evaporation: one trajectory, 1e15 g to the cutoff", 1000,
+         [&] { sink = sink + Trajectory(ml, 1e15 * gram).lifetime(); }, "trajectories/s");
+  report("evaporation: 1e4 trajectories, 1e5 g to 1e15 g", 1, [&] {
+    for (int i = 0; i < 10000; ++i) sink = sink + Trajectory(ml, std::pow(10.0, 5 + 10.0 * i / 9999) * gram).lifetime();
   });
   return sink == 12345.0;  // keeps the work from being optimised away
 }

@@ -118,6 +118,35 @@ cmp -s "$work/greybody.tsv" "$src/data/greybody.tsv" || fail "greybody rebuild: 
 run "greybody rebuild unwritable" 2 -- "$ember" greybody --rebuild --quiet --output "$src/configs"
 stderr_has "greybody rebuild unwritable" "cannot write"
 
+# --- evaporate ------------------------------------------------------------------------------------
+run "evaporate mass" 0 -- "$ember" evaporate --mass "1e15 g" --age "13.787 Gyr" --trajectory "$work/traj/m.csv" --json
+json_ok "evaporate mass"
+cp "$work/out" "$work/evaporate.json"
+[[ -f "$work/traj/m.csv" ]] || fail "evaporate --trajectory: no file"
+grep -q '^age_s,time_left_s,mass_g,temperature_GeV$' "$work/traj/m.csv" || fail "evaporate --trajectory: no column line"
+grep -qiE 'nan|inf' "$work/traj/m.csv" && fail "evaporate --trajectory: NaN or inf in the CSV"
+run "evaporate text" 0 -- "$ember" evaporate --mass 1e10g --formed-at "1e-25 s"
+stdout_has "evaporate text" "Hawking temperature"
+stdout_has "evaporate text" "evaporated"
+stdout_has "evaporate text" "analytic tail"
+run "evaporate lifetime" 0 -- "$ember" evaporate --lifetime "13.787 Gyr" --json
+json_ok "evaporate lifetime"
+cp "$work/out" "$work/lifetime.json"
+run "evaporate species" 0 -- "$ember" evaporate --mass 1e20g --species photon,graviton,nu_e,nu_mu,nu_tau --json
+cp "$work/out" "$work/light.json"
+run "evaporate bad mass" 2 -- "$ember" evaporate --mass "1e15 s"
+stderr_has "evaporate bad mass" "--mass"
+stderr_has "evaporate bad mass" "is a time; expected a mass"
+run "evaporate bad species" 2 -- "$ember" evaporate --mass 1e15g --species photon,fotino
+stderr_has "evaporate bad species" "fotino"
+run "evaporate bad particles" 2 -- "$ember" evaporate --mass 1e15g --particles "$src/tests/data/bad_particles/bad_spin.yaml"
+stderr_has "evaporate bad particles" "bad_spin.yaml:2:39:"
+run "evaporate low cutoff" 2 -- "$ember" evaporate --mass 1e15g --cutoff "0.1 Mpl"
+stderr_has "evaporate low cutoff" "cutoff_mass"
+run "evaporate unreachable lifetime" 2 -- "$ember" evaporate --lifetime "1e-80 s"
+run "evaporate unwritable trajectory" 2 -- "$ember" evaporate --mass 1e15g --trajectory "$src/configs"
+stdout_empty "evaporate unwritable trajectory"
+
 # Every --json output is exactly one JSON object; 1e15 g is 1e12 kg.
 python3 - "$work" <<'PY' || failures=$((failures + 1))
 import json, pathlib, sys
@@ -147,6 +176,25 @@ for spin in ("0", "0.5", "1", "2"):
 # Page, PRD 13 (1976) 198: 4.09e-5 per neutrino state, within 0.5%.
 if abs(p["0.5"]["power"] / 4.09e-5 - 1) > 5e-3:
     print(f"FAIL: spin-1/2 power {p['0.5']['power']} is not Page's 4.09e-5")
+    bad += 1
+e = json.loads((work / "evaporate.json").read_text())
+for key in ("mass_g", "temperature_GeV", "f", "alpha_g3_per_s", "lifetime_s", "mass_today_g"):
+    if key not in e:
+        print(f"FAIL: evaporate --json lacks {key}")
+        bad += 1
+# Carr, Kohri, Sendouda & Yokoyama, PRD 81 (2010) 104019: T = 1.06 GeV (M/1e13 g)^-1.
+if abs(e["temperature_GeV"] / 1.06e-2 - 1) > 5e-3:
+    print(f"FAIL: T(1e15 g) = {e['temperature_GeV']} GeV, not 1.06e-2")
+    bad += 1
+# Page 1976 (5 +- 1)e14 g; MacGibbon, Carr & Page 2008: 5.1e14 g, for a lifetime of 13.787 Gyr.
+m = json.loads((work / "lifetime.json").read_text())["mass_g"]
+if not 4.5e14 < m < 5.6e14:
+    print(f"FAIL: the hole evaporating today weighs {m} g, not about 5e14 g")
+    bad += 1
+# MacGibbon 1991: f ~ 1.0 for photons, three neutrino flavours and gravitons.
+f = json.loads((work / "light.json").read_text())["f"]
+if abs(f - 1) > 0.03:
+    print(f"FAIL: f for the light species set is {f}, not ~1.0")
     bad += 1
 sys.exit(1 if bad else 0)
 PY

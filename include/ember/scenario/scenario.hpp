@@ -10,6 +10,8 @@
 #include <variant>
 #include <vector>
 
+#include "ember/evaporation/trajectory.hpp"
+
 namespace ember::scenario {
 
 // --- population -------------------------------------------------------------------------------
@@ -68,11 +70,9 @@ struct StandardModelInputs {
 };
 
 // --- evaporation, tunnelling --------------------------------------------------------------------
-enum class GreybodyArgument { energy, momentum };
 struct EvaporationChoices {
-  double qcd_scale;  // GeV
-  GreybodyArgument greybody_argument;
-  double cutoff_mass;  // GeV
+  evaporation::MassLossOptions mass_loss;     // qcd_scale, greybody argument
+  evaporation::TrajectoryOptions trajectory;  // cutoff_mass
 };
 
 enum class Prescription { entropy_drop, probe_field, hot_bubble, no_seed, thin_wall };

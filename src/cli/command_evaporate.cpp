@@ -1,0 +1,217 @@
+// `ember evaporate`: temperature, f, alpha, lifetime, mass left and energy budget of one hole; or
+// the initial mass with a given lifetime; optionally the trajectory M(t) as CSV.
+#include <fmt/format.h>
+
+#include <iostream>
+#include <sstream>
+
+#include "command.hpp"
+#include "ember/core/atomic_file.hpp"
+#include "ember/core/errors.hpp"
+#include "ember/core/text.hpp"
+#include "ember/evaporation/budget.hpp"
+#include "ember/evaporation/trajectory.hpp"
+#include "ember/units/constants.hpp"
+
+namespace ember::cli {
+
+namespace {
+
+using namespace ember::evaporation;
+namespace u = ember::units;
+
+struct EvaporateOptions {
+  std::string mass, lifetime, age, formed_at, today = "13.787 Gyr";
+  std::string qcd_scale = "0.3 GeV", argument = "energy", cutoff = "1e3 Mpl";
+  std::string species, particles, table, trajectory;
+  bool json = false;
+};
+
+struct Setup {
+  MassLoss mass_loss;
+  TrajectoryOptions trajectory;
+};
+
+Setup setup(const EvaporateOptions& o) {
+  MassLossOptions options;
+  options.qcd_scale = quantity_option("--qcd-scale", o.qcd_scale, u::energy);
+  if (o.argument != "energy" && o.argument != "momentum")
+    throw InputError(fmt::format("--greybody-argument {}: unknown; expected energy or momentum", o.argument));
+  options.argument = o.argument == "momentum" ? GreybodyArgument::momentum : GreybodyArgument::energy;
+  TrajectoryOptions t;
+  t.cutoff_mass = quantity_option("--cutoff", o.cutoff, u::mass);
+  t.validate();
+  ParticleSet particles = o.particles.empty() ? load_default_particles() : load_particles(o.particles);
+  if (!o.species.empty()) {
+    std::vector<std::string> names;
+    std::string name;
+    for (std::istringstream in(o.species); std::getline(in, name, ',');) names.push_back(trim(name));
+    particles = particles.only(names);
+  }
+  const greybody::Table table = o.table.empty() ? greybody::load_default_table() : greybody::load_table(o.table);
+  return {MassLoss(table, std::move(particles), options), t};
+}
+
+std::string model_line(const MassLoss& ml) {
+  return fmt::format(
+      "primary emission; greybody factors at the {} (MacGibbon-Webber); QCD scale {} GeV; {} species from {}",
+      ml.options().argument == GreybodyArgument::energy ? "energy" : "momentum", format_real(ml.options().qcd_scale),
+      ml.particles().species.size(), ml.particles().source);
+}
+
+std::string csv_trajectory(const Trajectory& tr, const EvaporateOptions& o) {
+  std::string out = fmt::format(
+      "# Ember evaporation trajectory of a {} g hole\n"
+      "# columns: age_s (time since formation), time_left_s, mass_g, temperature_GeV\n"
+      "# numerical integration down to {:.6g} g; below it the analytic tail M^3 = 3 alpha(M_cut) t_left "
+      "(analytic_tail = true)\n"
+      "# options: qcd_scale {}, greybody argument {}, cutoff {}\n"
+      "age_s,time_left_s,mass_g,temperature_GeV\n",
+      format_real(tr.initial_mass() / u::gram), tr.cutoff_mass() / u::gram, o.qcd_scale, o.argument, o.cutoff);
+  const double top = std::log(tr.initial_mass()),
+               bottom = std::log(std::min(tr.cutoff_mass(), tr.initial_mass()) * 1e-3);
+  const int rows = 400;
+  for (int i = 0; i <= rows; ++i) {
+    const double m = std::exp(top + (bottom - top) * i / rows);
+    out += fmt::format("{:.12e},{:.12e},{:.12e},{:.12e}\n", tr.age_at(m) / u::second, tr.time_left(m) / u::second,
+                       m / u::gram, hawking_temperature(m));
+  }
+  return out;
+}
+
+nlohmann::ordered_json shares_json(const MassLoss& ml, const std::vector<double>& shares) {
+  nlohmann::ordered_json j = nlohmann::ordered_json::object();
+  for (std::size_t i = 0; i < shares.size(); ++i) j[ml.particles().species[i].name] = shares[i];
+  return j;
+}
+
+int by_mass(const EvaporateOptions& o) {
+  const double mass = quantity_option("--mass", o.mass, u::mass);
+  const Setup s = setup(o);
+  const MassLoss& ml = s.mass_loss;
+  const Trajectory tr(ml, mass, s.trajectory);
+  const double alpha_cgs = ml.alpha(mass) / (u::gram * u::gram * u::gram) * u::second;
+  std::optional<double> age;
+  if (!o.age.empty() && !o.formed_at.empty())
+    throw InputError("evaporate: --age and --formed-at exclude each other; expected one");
+  if (!o.age.empty()) age = quantity_option("--age", o.age, u::time);
+  if (!o.formed_at.empty()) {
+    const double today = quantity_option("--today", o.today, u::time),
+                 formed = quantity_option("--formed-at", o.formed_at, u::time);
+    if (formed >= today)
+      throw InputError(
+          fmt::format("--formed-at {}: not before --today {}; expected an earlier cosmic time", o.formed_at, o.today));
+    age = today - formed;
+  }
+  nlohmann::ordered_json j{{"mass_g", mass / u::gram},
+                           {"temperature_GeV", hawking_temperature(mass)},
+                           {"f", ml.f(mass)},
+                           {"alpha_g3_per_s", alpha_cgs},
+                           {"alpha_relative_error", ml.relative_error()},
+                           {"lifetime_s", tr.lifetime() / u::second}};
+  std::string text = fmt::format(
+      "M = {} g ({:.4e} GeV, {:.4e} M_Pl)\n"
+      "  Hawking temperature  {:.6g} GeV ({:.4e} K)\n"
+      "  f(M)                 {:.6f}   (alpha / 5.34e25 g^3 s^-1, MacGibbon 1991)\n"
+      "  alpha(M)             {:.6e} g^3/s (relative error {:.1e})\n"
+      "  lifetime             {:.6e} s ({:.6g} Gyr)\n",
+      format_real(mass / u::gram), mass, mass / u::planck_mass, hawking_temperature(mass),
+      hawking_temperature(mass) / u::kelvin, ml.f(mass), alpha_cgs, ml.relative_error(), tr.lifetime() / u::second,
+      tr.lifetime() / (1e9 * u::year));
+  if (age) {
+    const double left = tr.mass_at_age(*age);
+    j["age_s"] = *age / u::second;
+    j["mass_today_g"] = left / u::gram;
+    j["evaporated"] = left == 0;
+    text += left > 0 ? fmt::format("  mass after {:.6g} Gyr {:.6e} g\n", *age / (1e9 * u::year), left / u::gram)
+                     : fmt::format("  after {:.6g} Gyr      evaporated (lifetime {:.6g} Gyr)\n", *age / (1e9 * u::year),
+                                   tr.lifetime() / (1e9 * u::year));
+  }
+  nlohmann::ordered_json decades = nlohmann::ordered_json::array();
+  text += "  time spent per decade of mass:\n";
+  for (const auto& d : tr.decade_times()) {
+    if (d.time <= 0) continue;
+    decades.push_back(
+        {{"from_g", d.mass_low / u::gram}, {"to_g", d.mass_high / u::gram}, {"time_s", d.time / u::second}});
+    if (d.mass_high > 1e-3 * tr.initial_mass())
+      text += fmt::format("    {:>9.3g} - {:<9.3g} g  {:.4e} s\n", d.mass_low / u::gram, d.mass_high / u::gram,
+                          d.time / u::second);
+  }
+  text += fmt::format("    (and {:.4e} s below {:.3g} g)\n", tr.time_left(1e-3 * tr.initial_mass()) / u::second,
+                      1e-3 * tr.initial_mass() / u::gram);
+  j["decades"] = decades;
+
+  const auto now = power_shares(ml, mass), life = lifetime_shares(ml, mass, tr.cutoff_mass());
+  j["budget_now"] = shares_json(ml, now);
+  j["budget_lifetime"] = shares_json(ml, life);
+  text += "  energy budget by species        now   rest of life\n";
+  for (std::size_t i = 0; i < now.size(); ++i)
+    if (now[i] > 1e-4 || life[i] > 1e-4)
+      text +=
+          fmt::format("    {:<22} {:>8.3f}% {:>8.3f}%\n", ml.particles().species[i].name, 100 * now[i], 100 * life[i]);
+  j["cutoff_g"] = tr.cutoff_mass() / u::gram;
+  j["analytic_tail"] = tr.analytic_tail();
+  j["tail_s"] = tr.tail_duration() / u::second;
+  j["model"] = model_line(ml);
+  text += fmt::format("  integrated to {:.4g} g; analytic tail below ({:.3e} s)\n  model: {}\n",
+                      tr.cutoff_mass() / u::gram, tr.tail_duration() / u::second, model_line(ml));
+  if (!o.trajectory.empty()) {
+    write_file_atomically(o.trajectory, csv_trajectory(tr, o));
+    j["trajectory_file"] = o.trajectory;
+    text += fmt::format("  trajectory written to {}\n", o.trajectory);
+  }
+  if (o.json)
+    print_json(j);
+  else
+    std::cout << text;
+  return exit_ok;
+}
+
+int by_lifetime(const EvaporateOptions& o) {
+  const double lifetime = quantity_option("--lifetime", o.lifetime, u::time);
+  const Setup s = setup(o);
+  const double mass = mass_with_lifetime(s.mass_loss, lifetime, s.trajectory);
+  if (o.json)
+    print_json({{"lifetime_s", lifetime / u::second},
+                {"mass_g", mass / u::gram},
+                {"f", s.mass_loss.f(mass)},
+                {"model", model_line(s.mass_loss)}});
+  else
+    std::cout << fmt::format("a hole of {:.6e} g has a lifetime of {} ({:.6e} s)\n  model: {}\n", mass / u::gram,
+                             o.lifetime, lifetime / u::second, model_line(s.mass_loss));
+  return exit_ok;
+}
+
+}  // namespace
+
+Command add_evaporate(CLI::App& parent) {
+  auto o = std::make_shared<EvaporateOptions>();
+  CLI::App* app = parent.add_subcommand(
+      "evaporate",
+      "Hawking evaporation of one hole: temperature, f(M), lifetime, mass left, energy budget (--mass), "
+      "or the mass with a given lifetime (--lifetime).");
+  auto* mass = app->add_option("--mass", o->mass, "initial mass, e.g. \"1e15 g\"");
+  auto* lifetime =
+      app->add_option("--lifetime", o->lifetime, "find the initial mass with this lifetime, e.g. \"13.787 Gyr\"");
+  mass->excludes(lifetime);
+  app->add_option("--age", o->age, "--mass: time since formation, to give the mass left");
+  app->add_option("--formed-at", o->formed_at, "--mass: cosmic time of formation (the age is --today minus this)");
+  app->add_option("--today", o->today, "the age of the universe (default 13.787 Gyr, Planck 2018)");
+  app->add_option("--qcd-scale", o->qcd_scale,
+                  "energy above which quarks and gluons are emitted, pions below (default 0.3 GeV)");
+  app->add_option("--greybody-argument", o->argument,
+                  "massive species: greybody factors at the energy or the momentum");
+  app->add_option("--cutoff", o->cutoff, "numerical integration stops here; analytic tail below (default 1e3 Mpl)");
+  app->add_option("--species", o->species, "only these species, comma-separated names from the particle table");
+  app->add_option("--particles", o->particles, "particle table (default data/particles.yaml)");
+  app->add_option("--table", o->table, "greybody table (default data/greybody.tsv)");
+  app->add_option("--trajectory", o->trajectory, "--mass: write M(t) to this CSV file");
+  app->add_flag("--json", o->json, "print one JSON object on stdout");
+  return {app, [o] {
+            if (!o->lifetime.empty()) return by_lifetime(*o);
+            if (o->mass.empty()) throw InputError("evaporate: expected --mass or --lifetime");
+            return by_mass(*o);
+          }};
+}
+
+}  // namespace ember::cli

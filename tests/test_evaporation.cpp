@@ -1,0 +1,191 @@
+// Mass loss over the Standard Model and evaporation trajectories, against the literature.
+#include <doctest/doctest.h>
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_integration.h>
+
+#include <cmath>
+#include <functional>
+
+#include "ember/core/errors.hpp"
+#include "ember/evaporation/budget.hpp"
+#include "ember/evaporation/trajectory.hpp"
+#include "ember/units/constants.hpp"
+#include "support.hpp"
+
+using namespace ember::evaporation;
+namespace u = ember::units;
+using ember::testing::close;
+using ember::testing::source_dir;
+
+namespace {
+const ember::greybody::Table& greybody() {
+  static const auto t = ember::greybody::load_table(source_dir / "data/greybody.tsv");
+  return t;
+}
+const ParticleSet& all() {
+  static const auto p = load_particles(source_dir / "data/particles.yaml");
+  return p;
+}
+const MassLoss& standard_model() {
+  static const MassLoss ml(greybody(), all());
+  return ml;
+}
+const MassLoss& light() {  // photons, three neutrino flavours, gravitons
+  static const MassLoss ml(greybody(), all().only({"photon", "graviton", "nu_e", "nu_mu", "nu_tau"}));
+  return ml;
+}
+double grams(double g) {
+  return g * u::gram;
+}
+}  // namespace
+
+TEST_CASE("f(M) in its limits") {
+  // f(M >> 1e17 g) ~ 1.0 for photons, three neutrino flavours and gravitons (MacGibbon, PRD 44
+  // (1991) 376); here the neutrinos are three flavours of nu and nu-bar, one helicity each.
+  CHECK(close(light().f(grams(1e20)), 1.0, 0.03));
+  CHECK(close(standard_model().f(grams(1e20)), light().f(grams(1e20)), 1e-6));  // nothing else is emitted
+  // Page's set, photons + two neutrino flavours + gravitons: 2.011e-4 hbar c^4 / G^2 (Page, PRD 13
+  // (1976) 198).
+  const MassLoss page(greybody(), all().only({"photon", "graviton", "nu_e", "nu_mu"}));
+  CHECK(close(page.alpha(grams(1e20)) / std::pow(u::planck_mass, 4), 2.011e-4, 5e-3));
+  // f(M << 1e11 g) -> 15.35 for the full Standard Model (MacGibbon 1991), within 3% under our
+  // counting (W/Z longitudinal modes as spin 0; data/particles.yaml).
+  CHECK(close(standard_model().f(grams(1e8)), 15.35, 0.03));
+}
+
+TEST_CASE("Hawking temperature: T = 1.06 GeV (M / 1e13 g)^-1") {
+  // Carr, Kohri, Sendouda & Yokoyama, PRD 81 (2010) 104019, eq. 2.
+  for (double m : {1e9, 1e13, 1e17}) CHECK(close(hawking_temperature(grams(m)), 1.06 * 1e13 / m, 5e-3));
+}
+
+TEST_CASE("lifetimes: tau ~ M^3 for a fixed species set, and 407 s (f/15.35)^-1 (M/1e10 g)^3") {
+  // With alpha constant, tau = M^3/(3 alpha) exactly (derived from dM/dt = -alpha/M^2).
+  for (double m : {1e18, 1e25, 1e35}) {
+    const Trajectory t(light(), grams(m));
+    CHECK(close(t.lifetime() * 3 * light().alpha(grams(m)) / std::pow(grams(m), 3), 1.0, 1e-9));
+  }
+  // Where f is constant: tau = 407 s (f/15.35)^-1 (M/1e10 g)^3 (Carr, Kohri, Sendouda & Yokoyama,
+  // PRD 81 (2010) 104019, eq. 3); the 407 s is rounded, so 0.2%.
+  const double m = grams(1e9);
+  const double f = standard_model().f(m);
+  CHECK(close(Trajectory(standard_model(), m).lifetime() / u::second, 407.0 / (f / 15.35) * 1e-3, 2e-3));
+}
+
+TEST_CASE("the hole evaporating today weighs about 5e14 g") {
+  // Page, PRD 13 (1976) 198: (5 +- 1)e14 g; MacGibbon, Carr & Page, PRD 78 (2008) 064043: 5.1e14 g;
+  // age 13.787 Gyr (Planck 2018 VI, A&A 641 (2020) A6, Table 2).
+  const double m = mass_with_lifetime(standard_model(), 13.787e9 * u::year) / u::gram;
+  CHECK(close(m, 5e14, 0.10));
+  CHECK(close(m, 5.1e14, 0.10));
+}
+
+TEST_CASE("energy conservation: the integral of P dt is M_initial - M_cutoff") {
+  for (double m : {1e10, 1e15}) {
+    const Trajectory t(standard_model(), grams(m));
+    // P dt with tau = time left = e^s: int P(M(tau)) e^s ds over the integrated stretch.
+    const std::function<double(double)> power = [&](double s) {
+      const double mass = t.mass_at_time_left(std::exp(s));
+      return standard_model().alpha(mass) / (mass * mass) * std::exp(s);
+    };
+    gsl_function g{[](double s, void* p) { return (*static_cast<const std::function<double(double)>*>(p))(s); },
+                   const_cast<std::function<double(double)>*>(&power)};
+    gsl_set_error_handler_off();  // a failed quadrature fails the check instead of aborting
+    gsl_integration_workspace* w = gsl_integration_workspace_alloc(1000);
+    double result = 0, abserr = 0;
+    gsl_integration_qag(&g, std::log(t.tail_duration()), std::log(t.lifetime()), 0, 1e-11, 1000, GSL_INTEG_GAUSS61, w,
+                        &result, &abserr);
+    gsl_integration_workspace_free(w);
+    CAPTURE(m);
+    CHECK(close(result, grams(m) - t.cutoff_mass(), 1e-8));
+  }
+}
+
+TEST_CASE("alpha(M) is smooth through the particle thresholds") {
+  // The tabulated alpha follows the direct species sum.
+  CHECK(standard_model().summary().max_midpoint_error < 1e-5);
+  for (double m_g : {1e14, 3e13, 1e13, 1e11, 6e10})
+    CHECK(close(standard_model().alpha(grams(m_g)), standard_model().alpha_direct(grams(m_g)), 1e-5));
+  // No steps or kinks: the curvature of ln alpha in ln M stays small over every threshold from the
+  // top quark to the electron. A step of 1% would show as ~1e4 here, a kink of 0.1 in the slope as
+  // ~100 (derived from the finite-difference step h).
+  const double h = 1e-3;
+  double worst = 0;
+  for (double lm = std::log(1e8); lm < std::log(1e19); lm += 0.0013) {
+    const double m = grams(std::exp(lm));
+    const auto ln_alpha = [&](double x) { return std::log(standard_model().alpha(x)); };
+    worst =
+        std::max(worst, std::abs(ln_alpha(m * std::exp(h)) - 2 * ln_alpha(m) + ln_alpha(m * std::exp(-h))) / (h * h));
+  }
+  CHECK(worst < 10.0);
+}
+
+TEST_CASE("trajectories work from 1e-5 g to 1e40 g without overflow") {
+  for (double m : {1e-5, 1.0, 1e15, 1e40}) {
+    const Trajectory t(standard_model(), grams(m));
+    CAPTURE(m);
+    CHECK(std::isfinite(t.lifetime()));
+    CHECK(t.lifetime() > 0);
+    CHECK(t.analytic_tail());
+    CHECK(close(t.mass_at_age(0), grams(m), 1e-9));
+    CHECK(t.mass_at_age(2 * t.lifetime()) == 0);
+    double total = 0;
+    for (const auto& d : t.decade_times()) total += d.time;
+    CHECK(close(total + t.time_left(grams(1e-6)), t.lifetime(), 1e-9));
+  }
+  // Inverting the trajectory recovers the mass (derived).
+  const Trajectory t(standard_model(), grams(1e15));
+  for (double m : {9e14, 1e12, 1e3, 1e-2}) CHECK(close(t.mass_at_time_left(t.time_left(grams(m))), grams(m), 1e-9));
+}
+
+TEST_CASE("energy budgets add up to one") {
+  // Derived: the shares are fractions of alpha, and of the energy radiated.
+  for (double m : {1e9, 1e13, 1e15, 1e18}) {
+    double now = 0, life = 0;
+    for (double s : power_shares(standard_model(), grams(m))) now += s;
+    for (double s : lifetime_shares(standard_model(), grams(m), 1e3 * u::planck_mass)) life += s;
+    CAPTURE(m);
+    CHECK(close(now, 1.0, 1e-12));
+    CHECK(close(life, 1.0, 1e-6));
+  }
+}
+
+TEST_CASE("the momentum option transmits less, and the QCD split follows its scale") {
+  // Derived: Gamma grows with x, and p < E for a massive species.
+  MassLossOptions momentum;
+  momentum.argument = GreybodyArgument::momentum;
+  const MassLoss ml(greybody(), all().only({"photon", "electron", "muon", "higgs"}), momentum),
+      energy(greybody(), all().only({"photon", "electron", "muon", "higgs"}));
+  for (double m : {1e10, 1e14, 1e16}) {
+    CHECK(ml.alpha(grams(m)) <= energy.alpha(grams(m)));
+    CHECK(ml.alpha(grams(m)) > 0.5 * energy.alpha(grams(m)));
+  }
+  // A confinement scale below the pion mass leaves no energies for pions.
+  MassLossOptions low;
+  low.qcd_scale = 0.1;
+  const MassLoss pions(greybody(), all().only({"photon", "pi_neutral"}), low);
+  CHECK(pions.species_alpha(grams(1e13))[1] == 0.0);
+}
+
+TEST_CASE("options and particle files are validated by name") {
+  TrajectoryOptions t;
+  t.cutoff_mass = 0.1 * u::planck_mass;
+  CHECK_THROWS_WITH_AS(t.validate(), doctest::Contains("cutoff_mass"), ember::InputError);
+  MassLossOptions o;
+  o.qcd_scale = -1;
+  CHECK_THROWS_WITH_AS(o.validate(), doctest::Contains("qcd_scale"), ember::InputError);
+  CHECK_THROWS_WITH_AS(all().only({"photon", "fotino"}), doctest::Contains("fotino"), ember::InputError);
+  const auto dir = source_dir / "tests/data/bad_particles";
+  const std::pair<const char*, const char*> cases[] = {
+      {"unknown_key.yaml", ":3:75: species[1].windw: unknown key"},
+      {"bad_spin.yaml", ":2:39: species[0].spin"},
+      {"negative_mass.yaml", ":2:26: species[0].mass"},
+      {"duplicate_name.yaml", ":3:12: species[1].name"},
+      {"missing_dof.yaml", "species[0].dof: missing"},
+      {"time_for_mass.yaml", "is a time; expected a mass"},
+      {"no_species.yaml", ":1:1: species"},
+  };
+  for (const auto& [file, fragment] : cases) {
+    CAPTURE(file);
+    CHECK_THROWS_WITH_AS(load_particles(dir / file), doctest::Contains(fragment), ember::InputError);
+  }
+}
