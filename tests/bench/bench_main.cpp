@@ -9,9 +9,9 @@
 
 #include "ember/evaporation/trajectory.hpp"
 #include "ember/greybody/emission.hpp"
-#include "ember/units/constants.hpp"
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
+#include "ember/units/constants.hpp"
 
 namespace {
 
@@ -69,8 +69,9 @@ int main() {
          [&] { sink = sink + MassLoss(table, particles, momentum).alpha(1e30); });
   const MassLoss ml(table, particles);
   const double gram = ember::units::gram;
-  report("evaporation: one trajectory, 1e15 g to the cutoff", 1000,
-         [&] { sink = sink + Trajectory(ml, 1e15 * gram).lifetime(); }, "trajectories/s");
+  report(
+      "evaporation: one trajectory, 1e15 g to the cutoff", 1000,
+      [&] { sink = sink + Trajectory(ml, 1e15 * gram).lifetime(); }, "trajectories/s");
   report("evaporation: 1e4 trajectories, 1e5 g to 1e15 g", 1, [&] {
     for (int i = 0; i < 10000; ++i) sink = sink + Trajectory(ml, std::pow(10.0, 5 + 10.0 * i / 9999) * gram).lifetime();
   });
