@@ -54,7 +54,7 @@ TEST_CASE("f(M) in its limits") {
 }
 
 TEST_CASE("Hawking temperature: T = 1.06 GeV (M / 1e13 g)^-1") {
-  // Carr, Kohri, Sendouda & Yokoyama, PRD 81 (2010) 104019, eq. 2.
+  // Carr, Kohri, Sendouda & Yokoyama, PRD 81 (2010) 104019 (equation number not checked).
   for (double m : {1e9, 1e13, 1e17}) CHECK(close(hawking_temperature(grams(m)), 1.06 * 1e13 / m, 5e-3));
 }
 
@@ -65,7 +65,7 @@ TEST_CASE("lifetimes: tau ~ M^3 for a fixed species set, and 407 s (f/15.35)^-1 
     CHECK(close(t.lifetime() * 3 * light().alpha(grams(m)) / std::pow(grams(m), 3), 1.0, 1e-9));
   }
   // Where f is constant: tau = 407 s (f/15.35)^-1 (M/1e10 g)^3 (Carr, Kohri, Sendouda & Yokoyama,
-  // PRD 81 (2010) 104019, eq. 3); the 407 s is rounded, so 0.2%.
+  // PRD 81 (2010) 104019; equation number not checked); the 407 s is rounded, so 0.2%.
   const double m = grams(1e9);
   const double f = standard_model().f(m);
   CHECK(close(Trajectory(standard_model(), m).lifetime() / u::second, 407.0 / (f / 15.35) * 1e-3, 2e-3));

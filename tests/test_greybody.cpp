@@ -52,7 +52,7 @@ TEST_CASE("low-frequency limits") {
 
 TEST_CASE("high-frequency limit: the capture cross-section 27 pi M^2") {
   // sigma_total = sum_l (2l+1) pi Gamma_l / omega^2 -> 27 pi M^2, the geometric-optics capture
-  // cross-section of the photon sphere (common practice; Misner, Thorne & Wheeler (1973) sec. 25.6).
+  // cross-section of the photon sphere (common practice; Misner, Thorne & Wheeler (1973), from memory).
   // The approach oscillates with an amplitude falling as 1/x; at x = 8 it is below 0.3%.
   for (const int ts : {0, 1, 2, 4}) {
     CAPTURE(ts);

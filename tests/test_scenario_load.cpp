@@ -21,8 +21,8 @@ TEST_CASE("the demo scenario loads, with the defaults filled in") {
   CHECK(s.population.abundance.measure == AbundanceMeasure::beta);
   // Defaults, with the sources named in src/scenario/scenario_keys.cpp:
   CHECK(s.population.collapse_fraction == 0.2);                              // Carr 1975
-  CHECK(close(s.standard_model.higgs_mass, 125.2));                          // PDG 2024
-  CHECK(close(s.standard_model.alpha_s, 0.118));                             // PDG 2024
+  CHECK(close(s.standard_model.inputs.higgs_mass, 125.2));                   // PDG 2024 (data/standard_model.yaml)
+  CHECK(close(s.standard_model.inputs.alpha_s, 0.118));                      // PDG 2024 (data/standard_model.yaml)
   CHECK(close(s.cosmology.hubble, 0.6766));                                  // Planck 2018 VI, Table 2
   CHECK(close(s.tunnelling.semiclassical_floor, 1e3 * units::planck_mass));  // common practice
   CHECK(s.tunnelling.prescriptions.size() == 4);
@@ -57,7 +57,7 @@ TEST_CASE("every variant reads into its typed form") {
     CHECK(s.scan.widths == std::vector<double>{0.3, 1});
     CHECK(s.scan.band.top_mass.points == 5);
     CHECK(s.scan.band.top_mass.span == 3);
-    CHECK(close(s.scan.band.top_mass.sigma, 0.29));  // PDG 2024 uncertainty, the default
+    CHECK(close(s.scan.band.top_mass.sigma, 0.29));  // PDG 2024 (data/standard_model.yaml) uncertainty, the default
     CHECK(s.scan.band.lambda6 == std::vector<double>{-0.5, 0.5});
     CHECK(s.output.files == std::vector<std::string>{"summary"});
   }
@@ -71,7 +71,7 @@ TEST_CASE("every variant reads into its typed form") {
     CHECK(close(s.cosmology.cmb_temperature, 2.35e-13));
     CHECK(close(s.evaporation.mass_loss.qcd_scale, 0.25));
     CHECK(s.evaporation.mass_loss.argument == ember::evaporation::GreybodyArgument::momentum);
-    CHECK(std::holds_alternative<StandardModelPotential>(s.standard_model.potential));
+    CHECK(std::holds_alternative<StandardModelForm>(s.standard_model.potential));
   }
 }
 

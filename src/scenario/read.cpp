@@ -53,7 +53,7 @@ PotentialForm read_potential(const YAML::Node& n) {
   const std::string form = n["form"].Scalar();
   if (form == "polynomial") return PolynomialPotential{qty(n["scale"], units::energy), numbers(n["coefficients"])};
   if (form == "table") return TabulatedPotential{n["file"].Scalar()};
-  return StandardModelPotential{n["coleman_weinberg"].Scalar() == "true", num(n["lambda6"]), num(n["lambda8"])};
+  return StandardModelForm{{n["coleman_weinberg"].Scalar() == "true", num(n["lambda6"]), num(n["lambda8"])}};
 }
 
 Prescription read_prescription(const std::string& s) {
@@ -114,8 +114,9 @@ Scenario read_scenario(const YAML::Node& r) {
   return Scenario{
       r["title"].Scalar(),
       Population{read_spectrum(pop["spectrum"]), read_abundance(pop["abundance"]), num(pop["collapse_fraction"])},
-      StandardModelInputs{mass(sm["top_mass"]), mass(sm["higgs_mass"]), mass(sm["w_mass"]), num(sm["alpha_s"]),
-                          whole(sm["loops"]), read_potential(sm["potential"])},
+      StandardModelInputs{
+          {mass(sm["top_mass"]), mass(sm["higgs_mass"]), num(sm["alpha_s"]), mass(sm["w_mass"]), whole(sm["loops"])},
+          read_potential(sm["potential"])},
       read_evaporation(ev),
       read_tunnelling(r["tunnelling"]),
       CosmologyInputs{num(cos["hubble"]), num(cos["omega_b_h2"]), num(cos["omega_cdm_h2"]),

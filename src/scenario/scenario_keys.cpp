@@ -2,9 +2,7 @@
 // this table (`ember schema`), and a test keeps the shipped copy identical.
 //
 // Default values and their sources:
-//   Standard Model inputs: Particle Data Group, Review of Particle Physics, PRD 110 (2024) 030001
-//     (top pole mass from direct measurements 172.57 +- 0.29 GeV; M_h = 125.20 +- 0.11 GeV;
-//      alpha_s(M_Z) = 0.1180 +- 0.0009; M_W = 80.3692 +- 0.0133 GeV).
+//   Standard Model inputs and their band sigmas: data/standard_model.yaml (PDG 2024), compiled in.
 //   Cosmology: Planck 2018 VI, A&A 641 (2020) A6, Table 2, TT,TE,EE+lowE+lensing+BAO column
 //     (h = 0.6766, Omega_b h^2 = 0.02242, Omega_c h^2 = 0.11933); T_CMB = 2.7255 K (Fixsen,
 //     ApJ 707 (2009) 916); N_eff = 3.046 (standard-model value used by Planck 2018).
@@ -17,6 +15,8 @@
 //     the onset of quark and gluon emission (from memory).
 #include <utility>
 
+#include "ember/core/text.hpp"
+#include "ember/higgs/inputs.hpp"
 #include "ember/scenario/schema.hpp"
 
 namespace ember::scenario {
@@ -78,7 +78,12 @@ Key population() {
        number("collapse_fraction", "gamma: formation mass over the horizon mass", "0.2", above_up_to(0, 1))});
 }
 
+std::string gev(double value) {
+  return format_real(value) + " GeV";
+}
+
 Key standard_model() {
+  const higgs::MeasuredInputs& m = higgs::measured_inputs();
   Key potential = choice(
       "potential", "the potential the tunnelling codes use", "form",
       {
@@ -102,10 +107,12 @@ Key standard_model() {
 
   return section(
       "standard_model", "the inputs that fix the Higgs potential",
-      {quantity("top_mass", "top-quark pole mass M_t", units::mass, "GeV", "172.57 GeV", between(150, 200)),
-       quantity("higgs_mass", "Higgs-boson pole mass M_h", units::mass, "GeV", "125.2 GeV", between(100, 150)),
-       number("alpha_s", "strong coupling alpha_s(M_Z), MS-bar, five flavours", "0.118", between(0.1, 0.14)),
-       quantity("w_mass", "W-boson pole mass M_W", units::mass, "GeV", "80.3692 GeV", between(75, 85)),
+      {quantity("top_mass", "top-quark pole mass M_t", units::mass, "GeV", gev(m.top_mass.value), between(150, 200)),
+       quantity("higgs_mass", "Higgs-boson pole mass M_h", units::mass, "GeV", gev(m.higgs_mass.value),
+                between(100, 150)),
+       number("alpha_s", "strong coupling alpha_s(M_Z), MS-bar, five flavours", format_real(m.alpha_s.value),
+              between(0.1, 0.14)),
+       quantity("w_mass", "W-boson pole mass M_W", units::mass, "GeV", gev(m.w_mass.value), between(75, 85)),
        integer("loops", "loop order of the renormalisation-group running", "3", between(1, 3)), potential});
 }
 
@@ -159,20 +166,22 @@ Key band_axis(std::string name, std::string meaning, Key sigma) {
 }
 
 Key scan() {
+  const higgs::MeasuredInputs& m = higgs::measured_inputs();
   Key masses = ordered(section("masses", "grid of formation (or characteristic) masses, logarithmic",
                                {quantity("from", "lowest mass", units::mass, "g", "1 g", above(0)),
                                 quantity("to", "highest mass", units::mass, "g", "1e15 g", above(0)),
                                 integer("points", "number of masses", "61", between(1, 100000))}),
                        {{"from", "to", false}});
-  Key band =
-      section("band", "Higgs-input sensitivity band; the axes combine as a grid",
-              {band_axis("top_mass", "top-mass axis",
-                         quantity("sigma", "one standard deviation", units::mass, "GeV", "0.29 GeV", above(0))),
-               band_axis("higgs_mass", "Higgs-mass axis",
-                         quantity("sigma", "one standard deviation", units::mass, "GeV", "0.11 GeV", above(0))),
-               band_axis("alpha_s", "alpha_s axis", number("sigma", "one standard deviation", "0.0009", above(0))),
-               number_list("lambda6", "extra values of lambda6 to scan; empty for none", any_value()),
-               number_list("lambda8", "extra values of lambda8 to scan; empty for none", any_value())});
+  Key band = section(
+      "band", "Higgs-input sensitivity band; the axes combine as a grid",
+      {band_axis("top_mass", "top-mass axis",
+                 quantity("sigma", "one standard deviation", units::mass, "GeV", gev(m.top_mass.sigma), above(0))),
+       band_axis("higgs_mass", "Higgs-mass axis",
+                 quantity("sigma", "one standard deviation", units::mass, "GeV", gev(m.higgs_mass.sigma), above(0))),
+       band_axis("alpha_s", "alpha_s axis",
+                 number("sigma", "one standard deviation", format_real(m.alpha_s.sigma), above(0))),
+       number_list("lambda6", "extra values of lambda6 to scan; empty for none", any_value()),
+       number_list("lambda8", "extra values of lambda8 to scan; empty for none", any_value())});
   return section(
       "scan", "what to scan",
       {masses, number_list("widths", "lognormal widths to scan; empty for the spectrum's own", between(0.01, 10)),

@@ -11,6 +11,7 @@
 #include "ember/greybody/emission.hpp"
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
+#include "ember/higgs/stability.hpp"
 #include "ember/units/constants.hpp"
 
 namespace {
@@ -75,5 +76,23 @@ int main() {
   report("evaporation: 1e4 trajectories, 1e5 g to 1e15 g", 1, [&] {
     for (int i = 0; i < 10000; ++i) sink = sink + Trajectory(ml, std::pow(10.0, 5 + 10.0 * i / 9999) * gram).lifetime();
   });
+  using namespace ember::higgs;
+  const Inputs sm = default_inputs();
+  report(
+      "higgs: one 3-loop run from M_t to 1e21 GeV (splines included)", 200,
+      [&] { sink = sink + Running(sm).lambda(1.22e19); }, "runs/s");
+  const auto running = std::make_shared<const Running>(sm);
+  const StandardModelPotential potential(running);
+  double h = 1e9;
+  report(
+      "higgs: one lambda_eff evaluation after tabulation", 1000000,
+      [&] {
+        h = h * 1.0001 > 1e20 ? 1e9 : h * 1.0001;
+        sink = sink + potential.lambda_eff(h);
+      },
+      "evaluations/s");
+  report("higgs: stability verdict and unseeded decay", 50,
+         [&] { sink = sink + analyse_stability(potential).lambda_min; });
+  report("higgs: critical top mass (root find over runs)", 5, [&] { sink = sink + critical_top_mass(sm); });
   return sink == 12345.0;  // keeps the work from being optimised away
 }

@@ -147,6 +147,24 @@ run "evaporate unreachable lifetime" 2 -- "$ember" evaporate --lifetime "1e-80 s
 run "evaporate unwritable trajectory" 2 -- "$ember" evaporate --mass 1e15g --trajectory "$src/configs"
 stdout_empty "evaporate unwritable trajectory"
 
+# --- higgs ----------------------------------------------------------------------------------------
+run "higgs buttazzo" 0 -- "$ember" higgs --mt 173.34 --mh 125.15 --alphas 0.1184 --mw 80.384 --loops 3 --at "1.22e19 GeV" --json --table "$work/couplings.csv"
+json_ok "higgs buttazzo"
+cp "$work/out" "$work/higgs.json"
+[[ -f "$work/couplings.csv" ]] || fail "higgs --table: no file"
+grep -q '^mu_GeV,g1,g2,g3,yt,lambda,Gamma,lambda_eff$' "$work/couplings.csv" || fail "higgs --table: no column line"
+run "higgs text" 0 -- "$ember" higgs
+stdout_has "higgs text" "verdict"
+stdout_has "higgs text" "critical top mass"
+run "higgs stable" 0 -- "$ember" higgs --mt 168 --json
+cp "$work/out" "$work/higgs_stable.json"
+stderr_has "higgs stable" "warning"
+run "higgs bad loops" 2 -- "$ember" higgs --loops 5
+stderr_has "higgs bad loops" "loops"
+run "higgs bad at" 2 -- "$ember" higgs --at "1e-23 s"
+stderr_has "higgs bad at" "--at"
+run "higgs top out of range" 2 -- "$ember" higgs --mt 300
+
 # Every --json output is exactly one JSON object; 1e15 g is 1e12 kg.
 python3 - "$work" <<'PY' || failures=$((failures + 1))
 import json, pathlib, sys
@@ -195,6 +213,20 @@ if not 4.5e14 < m < 5.6e14:
 f = json.loads((work / "light.json").read_text())["f"]
 if abs(f - 1) > 0.03:
     print(f"FAIL: f for the light species set is {f}, not ~1.0")
+    bad += 1
+h = json.loads((work / "higgs.json").read_text())
+for key in ("lambda_at", "lambda_eff_at", "instability_scale_GeV", "lambda_min", "lambda_min_scale_GeV", "verdict",
+            "log10_decay_probability", "critical_top_mass_GeV"):
+    if key not in h:
+        print(f"FAIL: higgs --json lacks {key}")
+        bad += 1
+# Buttazzo et al., JHEP 12 (2013) 089: lambda(M_Pl) = -0.0143 +- 0.0005 at their central inputs.
+if abs(h["lambda_at"] + 0.0143) > 0.0005:
+    print(f"FAIL: lambda(M_Pl) = {h['lambda_at']}, not -0.0143")
+    bad += 1
+st = json.loads((work / "higgs_stable.json").read_text())
+if st["verdict"] != "stable" or st["instability_scale_GeV"] is not None or st["log10_decay_probability"] is not None:
+    print(f"FAIL: M_t = 168 GeV should be stable with no instability scale: {st['verdict']}")
     bad += 1
 sys.exit(1 if bad else 0)
 PY

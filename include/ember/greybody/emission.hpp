@@ -1,7 +1,7 @@
 // Emission of a massless species by a Schwarzschild hole, per degree of freedom (one helicity).
 //
 //   d^2N/(dt dw) = (1/2pi) sum_l (2l+1) Gamma_{s,l}(w) / (e^{w/T} -+ 1),  T = 1/(8 pi M)
-// (Page, PRD 13 (1976) 198, eq. 1 in our notation); minus for bosons, plus for fermions.
+// (Page, PRD 13 (1976) 198, in our notation); minus for bosons, plus for fermions.
 // With G = c = hbar = M = 1 (x = M w):
 //   power  P = (1/2pi) int dx x S(x)/(e^{8 pi x} -+ 1)  in units of hbar c^6 / (G^2 M^2)
 //   number N = (1/2pi) int dx   S(x)/(e^{8 pi x} -+ 1)  in units of c^3 / (G M)

@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "ember/evaporation/trajectory.hpp"
+#include "ember/higgs/potential.hpp"
 
 namespace ember::scenario {
 
@@ -49,9 +50,8 @@ struct Population {
 };
 
 // --- Standard Model inputs and the potential ---------------------------------------------------
-struct StandardModelPotential {
-  bool coleman_weinberg;
-  double lambda6, lambda8;
+struct StandardModelForm {
+  higgs::StandardModelOptions options;  // Coleman-Weinberg terms, lambda6, lambda8
 };
 struct PolynomialPotential {
   double scale;                      // GeV
@@ -60,12 +60,10 @@ struct PolynomialPotential {
 struct TabulatedPotential {
   std::filesystem::path file;
 };
-using PotentialForm = std::variant<StandardModelPotential, PolynomialPotential, TabulatedPotential>;
+using PotentialForm = std::variant<StandardModelForm, PolynomialPotential, TabulatedPotential>;
 
 struct StandardModelInputs {
-  double top_mass, higgs_mass, w_mass;  // GeV, pole masses
-  double alpha_s;                       // alpha_s(M_Z)
-  int loops;
+  higgs::Inputs inputs;  // M_t, M_h, M_W (GeV), alpha_s(M_Z), loop order
   PotentialForm potential;
 };
 

@@ -1,0 +1,26 @@
+// The O(4) bounce of a pure negative quartic, V = -|lambda| phi^4 / 4, in flat space.
+//
+// Units: phi in GeV, r in GeV^-1; the action is dimensionless.
+//
+// Analytic (Fubini, Nuovo Cim. A34 (1976) 521; Lipatov 1977): phi = sqrt(8/|lambda|) R/(r^2 + R^2)
+// for any R, with S = 8 pi^2 / (3 |lambda|). The numerical solve integrates
+//   phi'' + (3/r) phi' = V'(phi) = -|lambda| phi^3,  phi(0) = phi0, phi'(0) = 0,
+// with Boost.Odeint (Runge-Kutta-Fehlberg 7(8)) together with S = 2 pi^2 int r^3 (phi'^2/2 + V) dr,
+// adding the tail beyond the last radius analytically (phi ~ C/r^2 contributes C^2/R^2 (derived)).
+#pragma once
+
+#include "ember/core/estimate.hpp"
+
+namespace ember::higgs {
+
+double fubini_action(double lambda_abs);
+
+struct QuarticBounce {
+  Estimate action;
+  double radius = 0;  // R from phi0 = sqrt(8/|lambda|)/R
+  long steps = 0;
+};
+
+QuarticBounce solve_quartic_bounce(double lambda_abs, double phi0, double relative_tolerance = 1e-12);
+
+}  // namespace ember::higgs

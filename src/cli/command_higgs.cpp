@@ -1,0 +1,147 @@
+// `ember higgs`: RG running of the Standard Model couplings, the high-field potential, the
+// stability verdict and the unseeded decay probability of our past light cone.
+#include <fmt/format.h>
+
+#include <iostream>
+
+#include "command.hpp"
+#include "ember/core/atomic_file.hpp"
+#include "ember/core/errors.hpp"
+#include "ember/core/text.hpp"
+#include "ember/higgs/stability.hpp"
+
+namespace ember::cli {
+
+namespace {
+
+using namespace ember::higgs;
+
+struct HiggsOptions {
+  Inputs inputs = default_inputs();
+  std::string at = "1.22e19 GeV";
+  double lambda6 = 0, lambda8 = 0;
+  bool coleman_weinberg = false, json = false;
+  std::string table;
+};
+
+nlohmann::ordered_json optional_json(const std::optional<double>& v) {
+  return v ? nlohmann::ordered_json(*v) : nullptr;
+}
+
+std::string couplings_csv(const StandardModelPotential& pot) {
+  const Running& run = pot.running();
+  std::string out = fmt::format(
+      "# Ember running couplings (MS-bar) and the effective quartic, {}\n"
+      "# columns: mu_GeV, g1 (GUT-normalised), g2, g3, yt, lambda (MS-bar), Gamma (field anomalous-dimension "
+      "integral), lambda_eff\n"
+      "mu_GeV,g1,g2,g3,yt,lambda,Gamma,lambda_eff\n",
+      pot.description());
+  const double t0 = std::log(run.mu_min()), t1 = std::log(run.mu_max());
+  const int rows = static_cast<int>(std::ceil((t1 - t0) / 0.1));
+  for (int i = 0; i <= rows; ++i) {
+    const double mu = std::exp(t0 + (t1 - t0) * i / rows);
+    const Couplings c = run.couplings(mu);
+    out += fmt::format("{:.10e},{:.10e},{:.10e},{:.10e},{:.10e},{:.10e},{:.10e},{:.10e}\n", mu, c.g1, c.g2, c.g3, c.yt,
+                       c.lambda, run.gamma_integral(mu), pot.lambda_eff(mu));
+  }
+  return out;
+}
+
+int higgs(const HiggsOptions& o) {
+  o.inputs.validate();
+  const double at = quantity_option("--at", o.at, units::energy);
+  const auto running = std::make_shared<const Running>(o.inputs);
+  if (at < running->mu_min() || at > running->mu_max())
+    throw InputError(fmt::format("--at {}: outside the running's range; expected between M_t and {:.3g} GeV", o.at,
+                                 running->mu_max()));
+  const StandardModelPotential pot(running, {o.coleman_weinberg, o.lambda6, o.lambda8});
+  const StabilityReport r = analyse_stability(pot);
+  std::optional<double> critical;
+  std::vector<std::string> warnings = fit_warnings(o.inputs);
+  try {
+    critical = critical_top_mass(o.inputs);
+  } catch (const NumericalError& e) {
+    warnings.push_back(std::string("no critical top mass: ") + e.what());
+  }
+  for (const auto& w : warnings) fmt::print(stderr, "ember: warning: {}\n", w);
+  const Couplings c = couplings_at_top(o.inputs);
+
+  if (!o.table.empty()) write_file_atomically(o.table, couplings_csv(pot));
+  if (o.json) {
+    print_json({{"inputs",
+                 {{"top_mass_GeV", o.inputs.top_mass},
+                  {"higgs_mass_GeV", o.inputs.higgs_mass},
+                  {"alpha_s", o.inputs.alpha_s},
+                  {"w_mass_GeV", o.inputs.w_mass},
+                  {"loops", o.inputs.loops},
+                  {"lambda6", o.lambda6},
+                  {"lambda8", o.lambda8},
+                  {"coleman_weinberg", o.coleman_weinberg}}},
+                {"couplings_at_top", {{"g1", c.g1}, {"g2", c.g2}, {"g3", c.g3}, {"yt", c.yt}, {"lambda", c.lambda}}},
+                {"at_GeV", at},
+                {"lambda_at", running->lambda(at)},
+                {"lambda_eff_at", pot.lambda_eff(at)},
+                {"instability_scale_GeV", optional_json(r.instability_scale)},
+                {"lambda_min", r.lambda_min},
+                {"lambda_min_scale_GeV", r.lambda_min_scale},
+                {"lambda_eff_min", r.lambda_eff_min},
+                {"lambda_eff_min_scale_GeV", r.lambda_eff_min_scale},
+                {"verdict", name_of(r.verdict)},
+                {"log10_decay_probability", optional_json(r.log10_decay_probability)},
+                {"bounce_scale_GeV", r.log10_decay_probability ? nlohmann::ordered_json(r.bounce_scale) : nullptr},
+                {"critical_top_mass_GeV", optional_json(critical)},
+                {"prescription", r.prescription},
+                {"lambda_eff_interpolation_error", pot.interpolation_error()},
+                {"warnings", warnings}});
+    return exit_ok;
+  }
+  std::string text = fmt::format(
+      "{}\n"
+      "MS-bar couplings at mu = M_t (fits of Buttazzo et al. 2013):\n"
+      "  g1 = {:.5f}  g2 = {:.5f}  g3 = {:.5f}  yt = {:.5f}  lambda = {:.5f}\n"
+      "at mu = h = {:.4g} GeV:\n"
+      "  lambda (MS-bar, running)      {:+.5f}\n"
+      "  lambda_eff (in the potential) {:+.5f}\n",
+      pot.description(), c.g1, c.g2, c.g3, c.yt, c.lambda, at, running->lambda(at), pot.lambda_eff(at));
+  text += r.instability_scale ? fmt::format("instability scale (lambda_eff = 0)   {:.4g} GeV\n", *r.instability_scale)
+                              : "instability scale                    none: lambda_eff stays positive\n";
+  text += fmt::format("lambda_min (MS-bar, M_t to M_Pl)     {:+.5f} at {:.3g} GeV\n", r.lambda_min, r.lambda_min_scale);
+  text += fmt::format("lambda_eff minimum                   {:+.5f} at {:.3g} GeV\n", r.lambda_eff_min,
+                      r.lambda_eff_min_scale);
+  text += fmt::format("verdict                              {}\n", name_of(r.verdict));
+  text += r.log10_decay_probability
+              ? fmt::format("log10 p (unseeded, past light cone)  {:.1f} (bounce at mu = {:.3g} GeV)\n",
+                            *r.log10_decay_probability, r.bounce_scale)
+              : "log10 p (unseeded, past light cone)  none: no flat-space bounce\n";
+  text += critical ? fmt::format("critical top mass (lambda_min = 0)   {:.3f} GeV\n", *critical)
+                   : "critical top mass                    not found in [160, 185] GeV\n";
+  text += fmt::format("decay prescription: {}\n", r.prescription);
+  if (!o.table.empty()) text += fmt::format("running couplings written to {}\n", o.table);
+  std::cout << text;
+  return exit_ok;
+}
+
+}  // namespace
+
+Command add_higgs(CLI::App& parent) {
+  auto o = std::make_shared<HiggsOptions>();
+  CLI::App* app = parent.add_subcommand(
+      "higgs",
+      "Higgs potential at high field: RG running, instability scale, lambda_min, stability verdict, unseeded "
+      "decay probability, critical top mass.");
+  app->add_option("--mt", o->inputs.top_mass,
+                  "top-quark pole mass in GeV (default: PDG 2024, data/standard_model.yaml)");
+  app->add_option("--mh", o->inputs.higgs_mass, "Higgs-boson pole mass in GeV");
+  app->add_option("--alphas", o->inputs.alpha_s, "alpha_s(M_Z)");
+  app->add_option("--mw", o->inputs.w_mass, "W-boson pole mass in GeV");
+  app->add_option("--loops", o->inputs.loops, "loop order: 1, 2, or 3 (two loops plus three-loop QCD terms)");
+  app->add_option("--at", o->at, "also report lambda and lambda_eff at this scale (default 1.22e19 GeV)");
+  app->add_option("--lambda6", o->lambda6, "coefficient of h^6/(6 Mbar^2), Mbar the reduced Planck mass");
+  app->add_option("--lambda8", o->lambda8, "coefficient of h^8/(8 Mbar^4)");
+  app->add_flag("--coleman-weinberg", o->coleman_weinberg, "add the one-loop top, W and Z terms (Landau gauge)");
+  app->add_option("--table", o->table, "write the running couplings to this CSV file");
+  app->add_flag("--json", o->json, "print one JSON object on stdout");
+  return {app, [o] { return higgs(*o); }};
+}
+
+}  // namespace ember::cli

@@ -1,0 +1,207 @@
+#include "ember/higgs/potential.hpp"
+
+#include <fmt/format.h>
+#include <gsl/gsl_spline.h>
+
+#include <algorithm>
+#include <cmath>
+#include <fstream>
+#include <sstream>
+
+#include "ember/core/errors.hpp"
+#include "ember/core/text.hpp"
+#include "ember/units/constants.hpp"
+
+namespace ember::higgs {
+
+namespace {
+constexpr double pi = units::pi;
+constexpr double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass;
+using SplinePtr = std::shared_ptr<gsl_spline>;
+SplinePtr make_spline(const std::vector<double>& x, const std::vector<double>& y) {
+  SplinePtr s(gsl_spline_alloc(gsl_interp_cspline, x.size()), gsl_spline_free);
+  gsl_spline_init(s.get(), x.data(), y.data(), x.size());
+  return s;
+}
+}  // namespace
+
+double Potential::quartic(double h) const {
+  return 4 * value(h) / (h * h * h * h);
+}
+
+// --- Standard Model ----------------------------------------------------------------------------
+struct StandardModelPotential::Table {
+  double t0, t1;
+  SplinePtr lambda_eff;  // against t = ln h
+};
+
+double StandardModelPotential::lambda_eff_direct(double h) const {
+  const double mu = std::clamp(h, running_->mu_min(), running_->mu_max());
+  const Couplings c = running_->couplings(mu);
+  const double g = running_->gamma_integral(mu);
+  double bracket = c.lambda;
+  if (options_.coleman_weinberg) {
+    const double loop = 1 / (16 * pi * pi);
+    const double kt = c.yt * c.yt / 2, kw = c.g2 * c.g2 / 4, kz = (c.g2 * c.g2 + c.gY2()) / 4;
+    bracket += loop * (-12 * kt * kt * (std::log(kt) + 2 * g - 1.5) + 6 * kw * kw * (std::log(kw) + 2 * g - 5.0 / 6) +
+                       3 * kz * kz * (std::log(kz) + 2 * g - 5.0 / 6));
+  }
+  return std::exp(4 * g) * bracket;
+}
+
+StandardModelPotential::StandardModelPotential(std::shared_ptr<const Running> running, const StandardModelOptions& o)
+    : running_(std::move(running)), options_(o) {
+  if (!std::isfinite(o.lambda6) || !std::isfinite(o.lambda8))
+    throw InputError("Standard Model potential: lambda6 and lambda8 must be finite numbers");
+  auto table = std::make_shared<Table>();
+  table->t0 = std::log(running_->mu_min());
+  table->t1 = std::log(running_->mu_max());
+  const int n = static_cast<int>(std::ceil((table->t1 - table->t0) / 0.05)) + 1;
+  std::vector<double> t(static_cast<std::size_t>(n)), y(static_cast<std::size_t>(n));
+  for (int i = 0; i < n; ++i) {
+    t[static_cast<std::size_t>(i)] = table->t0 + (table->t1 - table->t0) * i / (n - 1);
+    y[static_cast<std::size_t>(i)] = lambda_eff_direct(std::exp(t[static_cast<std::size_t>(i)]));
+  }
+  table->lambda_eff = make_spline(t, y);
+  table_ = table;
+  for (int i = 0; i + 1 < n; ++i) {
+    const double mid = 0.5 * (t[static_cast<std::size_t>(i)] + t[static_cast<std::size_t>(i + 1)]);
+    interpolation_error_ =
+        std::max(interpolation_error_, std::abs(lambda_eff(std::exp(mid)) - lambda_eff_direct(std::exp(mid))));
+  }
+  interpolation_error_ += running_->summary().max_midpoint_error;
+}
+
+double StandardModelPotential::lambda_eff(double h) const {
+  const double t = std::clamp(std::log(h), table_->t0, table_->t1);
+  return gsl_spline_eval(table_->lambda_eff.get(), t, nullptr);
+}
+
+double StandardModelPotential::value(double h) const {
+  const double h2 = h * h, h4 = h2 * h2;
+  return lambda_eff(h) * h4 / 4 + options_.lambda6 * h4 * h2 / (6 * mbar2) +
+         options_.lambda8 * h4 * h4 / (8 * mbar2 * mbar2);
+}
+
+double StandardModelPotential::slope(double h) const {
+  const double t = std::log(h);
+  const bool inside = t > table_->t0 && t < table_->t1;
+  const double l = lambda_eff(h);
+  const double dl_dt = inside ? gsl_spline_eval_deriv(table_->lambda_eff.get(), t, nullptr) : 0.0;
+  const double h3 = h * h * h;
+  return h3 * l + h3 * dl_dt / 4 + options_.lambda6 * h3 * h * h / mbar2 +
+         options_.lambda8 * h3 * h3 * h / (mbar2 * mbar2);
+}
+
+double StandardModelPotential::curvature(double h) const {
+  const double t = std::log(h);
+  const bool inside = t > table_->t0 && t < table_->t1;
+  const double l = lambda_eff(h);
+  const double d1 = inside ? gsl_spline_eval_deriv(table_->lambda_eff.get(), t, nullptr) : 0.0;
+  const double d2 = inside ? gsl_spline_eval_deriv2(table_->lambda_eff.get(), t, nullptr) : 0.0;
+  // d/dh [h^3 (l + l'/4)] with d/dh = (1/h) d/dt.
+  const double h2 = h * h;
+  return h2 * (3 * l + 3 * d1 / 4 + d1 + d2 / 4) + 5 * options_.lambda6 * h2 * h2 / mbar2 +
+         7 * options_.lambda8 * h2 * h2 * h2 / (mbar2 * mbar2);
+}
+
+std::string StandardModelPotential::description() const {
+  const Inputs& in = running_->inputs();
+  return fmt::format(
+      "Standard Model, RG-improved ({} loops{}), M_t = {} GeV, M_h = {} GeV, alpha_s = {}{}", in.loops,
+      options_.coleman_weinberg ? ", one-loop Coleman-Weinberg terms, Landau gauge" : "", format_real(in.top_mass),
+      format_real(in.higgs_mass), format_real(in.alpha_s),
+      options_.lambda6 != 0 || options_.lambda8 != 0
+          ? fmt::format(", lambda6 = {}, lambda8 = {}", format_real(options_.lambda6), format_real(options_.lambda8))
+          : "");
+}
+
+// --- polynomial --------------------------------------------------------------------------------
+PolynomialPotential::PolynomialPotential(double scale, std::vector<double> coefficients)
+    : scale_(scale), a_(std::move(coefficients)) {
+  if (!(scale > 0) || !std::isfinite(scale))
+    throw InputError(fmt::format("polynomial potential: scale {} GeV; expected > 0", scale));
+  if (a_.empty()) throw InputError("polynomial potential: no coefficients; expected at least one");
+}
+
+double PolynomialPotential::value(double h) const {
+  const double z = h / scale_;
+  double sum = 0;
+  for (std::size_t n = a_.size(); n-- > 0;) sum = sum * z + a_[n];
+  return std::pow(scale_, 4) * sum;
+}
+
+double PolynomialPotential::slope(double h) const {
+  const double z = h / scale_;
+  double sum = 0;
+  for (std::size_t n = a_.size(); n-- > 1;) sum = sum * z + static_cast<double>(n) * a_[n];
+  return std::pow(scale_, 3) * sum;
+}
+
+double PolynomialPotential::curvature(double h) const {
+  const double z = h / scale_;
+  double sum = 0;
+  for (std::size_t n = a_.size(); n-- > 2;) sum = sum * z + static_cast<double>(n * (n - 1)) * a_[n];
+  return scale_ * scale_ * sum;
+}
+
+std::string PolynomialPotential::description() const {
+  std::vector<std::string> terms;
+  for (double a : a_) terms.push_back(format_real(a));
+  return fmt::format("polynomial: scale {} GeV, coefficients [{}]", format_real(scale_), fmt::join(terms, ", "));
+}
+
+// --- table -------------------------------------------------------------------------------------
+struct TabulatedPotential::Spline {
+  SplinePtr v;
+};
+
+TabulatedPotential::TabulatedPotential(const std::filesystem::path& file) : file_(file.string()) {
+  std::ifstream in(file);
+  if (!in)
+    throw InputError(fmt::format("{}: cannot be read; expected a potential table (phi in GeV, V in GeV^4)", file_));
+  std::vector<double> phi, v;
+  std::string line;
+  for (int number = 1; std::getline(in, line); ++number) {
+    const std::string t = trim(line);
+    if (t.empty() || t[0] == '#') continue;
+    std::istringstream fields(t);
+    std::string a, b, extra;
+    fields >> a >> b;
+    const auto x = parse_real(a), y = parse_real(b);
+    if (!x || !y || (fields >> extra))
+      throw InputError(fmt::format("{}:{}: \"{}\"; expected two numbers: phi [GeV] and V [GeV^4]", file_, number, t));
+    if (!phi.empty() && !(*x > phi.back()))
+      throw InputError(
+          fmt::format("{}:{}: phi {} after {}; expected phi increasing", file_, number, a, format_real(phi.back())));
+    phi.push_back(*x);
+    v.push_back(*y);
+  }
+  if (phi.size() < 4) throw InputError(fmt::format("{}: {} rows; expected at least 4", file_, phi.size()));
+  phi_min_ = phi.front();
+  phi_max_ = phi.back();
+  auto s = std::make_shared<Spline>();
+  s->v = make_spline(phi, v);
+  spline_ = s;
+}
+
+double TabulatedPotential::checked(double h) const {
+  if (h < phi_min_ || h > phi_max_)
+    throw InputError(
+        fmt::format("{}: phi = {:.4g} GeV lies outside the table [{:.4g}, {:.4g}] GeV", file_, h, phi_min_, phi_max_));
+  return h;
+}
+double TabulatedPotential::value(double h) const {
+  return gsl_spline_eval(spline_->v.get(), checked(h), nullptr);
+}
+double TabulatedPotential::slope(double h) const {
+  return gsl_spline_eval_deriv(spline_->v.get(), checked(h), nullptr);
+}
+double TabulatedPotential::curvature(double h) const {
+  return gsl_spline_eval_deriv2(spline_->v.get(), checked(h), nullptr);
+}
+std::string TabulatedPotential::description() const {
+  return "table " + file_;
+}
+
+}  // namespace ember::higgs

@@ -1,0 +1,163 @@
+#include "ember/higgs/stability.hpp"
+
+#include <fmt/format.h>
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_min.h>
+#include <gsl/gsl_roots.h>
+
+#include <cmath>
+#include <functional>
+
+#include "ember/core/errors.hpp"
+
+namespace ember::higgs {
+
+std::string name_of(Verdict v) {
+  switch (v) {
+    case Verdict::stable: return "stable";
+    case Verdict::metastable: return "metastable";
+    case Verdict::unstable: return "unstable";
+  }
+  return "";
+}
+
+namespace {
+
+constexpr double pi = units::pi;
+constexpr double grid_step = 0.01;  // scan in ln mu before refining
+
+using Fn = std::function<double(double)>;
+double call(double x, void* p) {
+  return (*static_cast<const Fn*>(p))(x);
+}
+
+// Minimum of f(t) near the grid minimum t_grid, refined by Brent's minimiser within one step.
+std::pair<double, double> refine_minimum(const Fn& f, double t_grid, double lo, double hi) {
+  const double a = std::max(lo, t_grid - grid_step), b = std::min(hi, t_grid + grid_step);
+  if (!(f(t_grid) < f(a) && f(t_grid) < f(b))) return {t_grid, f(t_grid)};  // at an end of the range
+  std::unique_ptr<gsl_min_fminimizer, decltype(&gsl_min_fminimizer_free)> m(
+      gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent), gsl_min_fminimizer_free);
+  gsl_function g{call, const_cast<Fn*>(&f)};
+  gsl_min_fminimizer_set(m.get(), &g, t_grid, a, b);
+  for (int i = 0; i < 100; ++i) {
+    gsl_min_fminimizer_iterate(m.get());
+    if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(m.get()), gsl_min_fminimizer_x_upper(m.get()), 1e-10, 0) ==
+        GSL_SUCCESS)
+      break;
+  }
+  const double t = gsl_min_fminimizer_x_minimum(m.get());
+  return {t, f(t)};
+}
+
+double refine_root(const Fn& f, double a, double b) {
+  std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
+                                                                        gsl_root_fsolver_free);
+  gsl_function g{call, const_cast<Fn*>(&f)};
+  gsl_root_fsolver_set(s.get(), &g, a, b);
+  for (int i = 0; i < 200; ++i) {
+    gsl_root_fsolver_iterate(s.get());
+    if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()), 1e-12, 0) ==
+        GSL_SUCCESS)
+      break;
+  }
+  return gsl_root_fsolver_root(s.get());
+}
+
+struct GridMin {
+  double t, value;
+};
+GridMin scan_min(const Fn& f, double lo, double hi) {
+  GridMin best{lo, f(lo)};
+  for (double t = lo; t <= hi; t += grid_step)
+    if (const double v = f(t); v < best.value) best = {t, v};
+  return best;
+}
+
+}  // namespace
+
+StabilityReport analyse_stability(const StandardModelPotential& pot, const StabilityOptions& o) {
+  gsl_error_handler_t* old = gsl_set_error_handler_off();
+  const Running& run = pot.running();
+  const double t0 = std::log(run.mu_min()), t1 = std::log(run.mu_max());
+  const double t_pl = std::min(t1, std::log(o.scale_limit));
+  StabilityReport r;
+
+  const Fn lambda_t = [&](double t) { return run.lambda(std::exp(t)); };
+  const Fn lambda_eff_t = [&](double t) { return pot.lambda_eff(std::exp(t)); };
+  const auto [tm, lm] = refine_minimum(lambda_t, scan_min(lambda_t, t0, t_pl).t, t0, t_pl);
+  r.lambda_min = lm;
+  r.lambda_min_scale = std::exp(tm);
+  const auto [te, le] = refine_minimum(lambda_eff_t, scan_min(lambda_eff_t, t0, t1).t, t0, t1);
+  r.lambda_eff_min = le;
+  r.lambda_eff_min_scale = std::exp(te);
+  for (double t = t0; t + grid_step <= t1; t += grid_step)
+    if (lambda_eff_t(t) > 0 && lambda_eff_t(t + grid_step) <= 0) {
+      r.instability_scale = std::exp(refine_root(lambda_eff_t, t, t + grid_step));
+      break;
+    }
+
+  // The full potential, Planck-suppressed operators included, decides stability.
+  bool deeper = false;
+  for (double t = t0; t <= t1 && !deeper; t += grid_step) deeper = pot.value(std::exp(t)) < 0;
+
+  // Unseeded decay.
+  const double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass;
+  const StandardModelOptions& so = pot.options();
+  const Fn quartic_t = [&](double t) {
+    const double mu = std::exp(t), x = mu * mu / mbar2;
+    return run.lambda(mu) + 2.0 / 3 * so.lambda6 * x + 0.5 * so.lambda8 * x * x;
+  };
+  const Fn minus_log10_p = [&](double t) {
+    const double q = quartic_t(t);
+    if (q >= 0) return 1e300;
+    const double action = 8 * pi * pi / (3 * std::abs(q));
+    return -(4 * (t - std::log(o.hubble_rate)) - action) / std::log(10.0);
+  };
+  const GridMin best = scan_min(minus_log10_p, t0, t_pl);
+  if (best.value < 1e299) {
+    const auto [tb, v] = refine_minimum(minus_log10_p, best.t, t0, t_pl);
+    r.log10_decay_probability = -v;
+    r.bounce_scale = std::exp(tb);
+  }
+  r.verdict = !deeper                                                          ? Verdict::stable
+              : (r.log10_decay_probability && *r.log10_decay_probability >= 0) ? Verdict::unstable
+                                                                               : Verdict::metastable;
+  r.prescription =
+      "flat-space Fubini bounce, S = 8 pi^2 / (3 |q(mu)|) with the MS-bar quartic at mu = 1/R plus the "
+      "Planck-suppressed "
+      "operators at h = mu; p = max_mu (mu/H0)^4 e^{-S}";
+  gsl_set_error_handler(old);
+  return r;
+}
+
+double critical_top_mass(const Inputs& inputs, const RunOptions& run, const StabilityOptions& o) {
+  const Fn lambda_min = [&](double mt) {
+    Inputs in = inputs;
+    in.top_mass = mt;
+    const StandardModelPotential pot(std::make_shared<const Running>(in, run));
+    return analyse_stability(pot, o).lambda_min;
+  };
+  const double lo = 160, hi = 185;
+  const double f_lo = lambda_min(lo), f_hi = lambda_min(hi);
+  if (!(f_lo > 0 && f_hi < 0))
+    throw NumericalError(
+        "critical top mass (GSL Brent)",
+        fmt::format("lambda_min does not change sign over M_t in [{}, {}] GeV ({:.4g}, {:.4g})", lo, hi, f_lo, f_hi));
+  gsl_error_handler_t* old = gsl_set_error_handler_off();
+  std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
+                                                                        gsl_root_fsolver_free);
+  gsl_function g{call, const_cast<Fn*>(&lambda_min)};
+  gsl_root_fsolver_set(s.get(), &g, lo, hi);
+  double root = 0.5 * (lo + hi);
+  for (int i = 0; i < 100; ++i) {
+    gsl_root_fsolver_iterate(s.get());
+    root = gsl_root_fsolver_root(s.get());
+    if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()), 1e-6, 0) ==
+        GSL_SUCCESS)
+      break;
+  }
+  gsl_set_error_handler(old);
+  return root;
+}
+
+}  // namespace ember::higgs

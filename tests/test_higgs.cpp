@@ -1,0 +1,172 @@
+// Higgs running, the high-field potential, the stability verdict and the unseeded decay.
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+#include "ember/core/errors.hpp"
+#include "ember/higgs/fubini.hpp"
+#include "ember/higgs/stability.hpp"
+#include "support.hpp"
+
+using namespace ember::higgs;
+using ember::testing::close;
+using ember::testing::source_dir;
+
+namespace {
+// The central inputs of Buttazzo et al., JHEP 12 (2013) 089: M_t = 173.34, M_h = 125.15,
+// alpha_s = 0.1184, M_W = 80.384.
+Inputs buttazzo() {
+  Inputs in;
+  in.top_mass = 173.34;
+  in.higgs_mass = 125.15;
+  in.alpha_s = 0.1184;
+  in.w_mass = 80.384;
+  in.loops = 3;
+  return in;
+}
+constexpr double m_pl = 1.22e19;
+double lambda_pl(const Inputs& in) {
+  return Running(in).lambda(m_pl);
+}
+StabilityReport report(const Inputs& in, const StandardModelOptions& o = {}) {
+  return analyse_stability(StandardModelPotential(std::make_shared<const Running>(in), o));
+}
+}  // namespace
+
+TEST_CASE("lambda at the Planck mass and its slopes (Buttazzo et al. 2013)") {
+  // Two-loop running plus the three-loop QCD terms gives lambda(1.22e19 GeV) = -0.0143 +- 0.0005;
+  // their fit: -0.0143 - 0.0066 (M_t - 173.34) + 0.0018 (alpha_s - 0.1184)/0.0007
+  // + 0.0029 (M_h - 125.15) (Buttazzo et al., JHEP 12 (2013) 089; equation number not checked).
+  const Inputs b = buttazzo();
+  CHECK(std::abs(lambda_pl(b) - -0.0143) < 0.0005);
+  const auto slope = [&](auto change, double step) {
+    Inputs up = b, down = b;
+    change(up, step);
+    change(down, -step);
+    return (lambda_pl(up) - lambda_pl(down)) / 2;
+  };
+  CHECK(close(slope([](Inputs& i, double d) { i.top_mass += d; }, 1.0), -0.0066, 0.10));
+  CHECK(close(slope([](Inputs& i, double d) { i.alpha_s += d; }, 0.0007), 0.0018, 0.10));
+  CHECK(close(slope([](Inputs& i, double d) { i.higgs_mass += d; }, 1.0), 0.0029, 0.10));
+}
+
+TEST_CASE("instability scale, lambda_min and the critical top mass") {
+  const StabilityReport r = report(buttazzo());
+  // Buttazzo et al. 2013: lambda turns negative near 1e10 GeV, with a minimum of about -0.014 at a
+  // few times 1e17 GeV.
+  REQUIRE(r.instability_scale);
+  CHECK(*r.instability_scale > 1e9);
+  CHECK(*r.instability_scale < 1e11);
+  CHECK(std::abs(r.lambda_min - -0.014) < 0.002);
+  CHECK(r.lambda_min_scale > 1e17);
+  CHECK(r.lambda_min_scale < 1e18);
+  CHECK(r.verdict == Verdict::metastable);
+  // Absolute stability needs M_t below 171.3 GeV at M_h = 125.15 GeV (Buttazzo et al. 2013;
+  // from memory); within 0.6 GeV.
+  CHECK(std::abs(critical_top_mass(buttazzo()) - 171.3) < 0.6);
+}
+
+TEST_CASE("the verdict follows the top mass and the Planck-suppressed operators") {
+  Inputs light = buttazzo(), heavy = buttazzo();
+  light.top_mass = 168;  // below the critical mass: stable (derived from the test above)
+  heavy.top_mass = 182;  // lambda very negative: the past light cone would have decayed
+  const StabilityReport a = report(light), c = report(heavy);
+  CHECK(a.verdict == Verdict::stable);
+  CHECK_FALSE(a.instability_scale);
+  CHECK_FALSE(a.log10_decay_probability);
+  CHECK(c.verdict == Verdict::unstable);
+  CHECK(*c.log10_decay_probability > 0);
+  CHECK(*c.instability_scale < 1e6);
+  // A Planck-suppressed operator adds to V but leaves lambda_eff alone (derived from the form of V).
+  const StandardModelPotential plain(std::make_shared<const Running>(buttazzo()));
+  const StandardModelPotential lifted(std::make_shared<const Running>(buttazzo()), {false, 1.0, 0.0});
+  CHECK(plain.lambda_eff(1e15) == lifted.lambda_eff(1e15));
+  CHECK(lifted.value(1e18) > plain.value(1e18));
+  // The unseeded decay probability is tiny for the measured inputs: log10 p far below zero
+  // (Buttazzo et al. 2013 find the lifetime far longer than the age of the universe).
+  CHECK(*report(buttazzo()).log10_decay_probability < -100);
+}
+
+TEST_CASE("the Fubini bounce: 8 pi^2 / (3 |lambda|), analytically and numerically") {
+  // Fubini, Nuovo Cim. A34 (1976) 521: S = 8 pi^2 / (3 |lambda|) for every size R.
+  CHECK(close(fubini_action(0.01), 8 * M_PI * M_PI / 0.03, 1e-15));
+  for (double l : {0.001, 0.0143, 0.1})
+    for (double phi0 : {1e3, 1e12}) {
+      const QuarticBounce b = solve_quartic_bounce(l, phi0);
+      CAPTURE(l);
+      CAPTURE(phi0);
+      CHECK(close(b.action.value, fubini_action(l), 1e-8));
+      CHECK(std::abs(b.action.value - fubini_action(l)) <= b.action.error + 1e-12 * fubini_action(l));
+    }
+}
+
+TEST_CASE("one-loop running matches the analytic solution") {
+  // At one loop d g/dt = b g^3/(16 pi^2), so 1/g^2(t) = 1/g^2(t0) - 2 b (t - t0)/(16 pi^2) (derived),
+  // with b = 41/10, -19/6, -7 for g1, g2, g3.
+  Inputs in = buttazzo();
+  in.loops = 1;
+  const Running run(in);
+  const Couplings c0 = couplings_at_top(in);
+  for (double mu : {1e4, 1e10, 1e18}) {
+    const double dt = std::log(mu / in.top_mass), k = 2 * dt / (16 * M_PI * M_PI);
+    const Couplings c = run.couplings(mu);
+    CHECK(close(c.g3, 1 / std::sqrt(1 / (c0.g3 * c0.g3) + 7 * k), 1e-8));
+    CHECK(close(c.g2, 1 / std::sqrt(1 / (c0.g2 * c0.g2) + 19.0 / 6 * k), 1e-8));
+    CHECK(close(c.g1, 1 / std::sqrt(1 / (c0.g1 * c0.g1) - 41.0 / 10 * k), 1e-8));
+  }
+}
+
+TEST_CASE("results converge as the step tolerance is refined") {
+  RunOptions loose, tight;
+  loose.relative_tolerance = 1e-7;
+  tight.relative_tolerance = 1e-13;
+  const double a = Running(buttazzo(), loose).lambda(m_pl), b = Running(buttazzo()).lambda(m_pl),
+               c = Running(buttazzo(), tight).lambda(m_pl);
+  CHECK(std::abs(b - c) < 1e-8);
+  CHECK(std::abs(b - c) <= std::abs(a - c) + 1e-12);
+  CHECK(Running(buttazzo()).summary().max_midpoint_error < 1e-6);
+}
+
+TEST_CASE("potential derivatives agree with finite differences") {
+  const StandardModelPotential sm(std::make_shared<const Running>(buttazzo()), {true, 0.5, -0.1});
+  const PolynomialPotential poly(1e10, {0, 0, 0.5, 0, -0.01, 0, 0.002});
+  const ember::higgs::Potential* list[] = {&sm, &poly};
+  for (const auto* p : list)
+    for (double h : {3e9, 4e12, 7e17}) {
+      const double e = 1e-5 * h;
+      CAPTURE(p->description());
+      CAPTURE(h);
+      CHECK(close(p->slope(h), (p->value(h + e) - p->value(h - e)) / (2 * e), 1e-5));
+      CHECK(close(p->curvature(h), (p->slope(h + e) - p->slope(h - e)) / (2 * e), 1e-4));
+    }
+  CHECK(close(poly.value(2e10), 1e40 * (0.5 * 4 - 0.01 * 16 + 0.002 * 64), 1e-14));
+  CHECK(close(sm.quartic(1e12),
+              sm.lambda_eff(1e12) + 2.0 / 3 * 0.5 * 1e24 / std::pow(ember::units::reduced_planck_mass, 2) -
+                  0.1 / 2 * 1e48 / std::pow(ember::units::reduced_planck_mass, 4),
+              1e-6));
+}
+
+TEST_CASE("user potential tables are read and checked") {
+  const TabulatedPotential t(source_dir / "tests/data/potentials/quartic.tsv");
+  CHECK(close(t.value(3e9), 2.025e37, 1e-12));
+  CHECK_THROWS_WITH_AS(t.value(1e12), doctest::Contains("outside the table"), ember::InputError);
+  CHECK_THROWS_WITH_AS(TabulatedPotential(source_dir / "tests/data/potentials/not_increasing.tsv"),
+                       doctest::Contains(":2: phi"), ember::InputError);
+  CHECK_THROWS_WITH_AS(TabulatedPotential(source_dir / "tests/data/potentials/bad_number.tsv"),
+                       doctest::Contains(":2:"), ember::InputError);
+}
+
+TEST_CASE("inputs: measured defaults, validation and fit warnings") {
+  // PDG 2024 (data/standard_model.yaml).
+  CHECK(measured_inputs().top_mass.value == 172.57);
+  CHECK(measured_inputs().top_mass.sigma == 0.29);
+  CHECK(measured_inputs().alpha_s.value == 0.118);
+  CHECK(default_inputs().higgs_mass == 125.2);
+  Inputs bad = buttazzo();
+  bad.loops = 4;
+  CHECK_THROWS_WITH_AS(bad.validate(), doctest::Contains("loops"), ember::InputError);
+  CHECK(fit_warnings(buttazzo()).empty());
+  Inputs far = buttazzo();
+  far.top_mass = 180;
+  CHECK(fit_warnings(far).size() == 1);
+}
