@@ -43,8 +43,8 @@ int run(int argc, char** argv) {
       "Exit codes: 0 success, 1 internal error, 2 bad input, 3 numerical failure.\n"
       "Every command that prints results takes --json for one JSON object on stdout.");
 
-  const std::vector<Command> commands{add_check(app),    add_schema(app),    add_convert(app),
-                                      add_greybody(app), add_evaporate(app), add_higgs(app)};
+  const std::vector<Command> commands{add_check(app),     add_schema(app), add_convert(app), add_greybody(app),
+                                      add_evaporate(app), add_higgs(app),  add_bounce(app)};
 
   try {
     app.parse(argc, argv);

@@ -57,9 +57,7 @@ PotentialForm read_potential(const YAML::Node& n) {
 }
 
 Prescription read_prescription(const std::string& s) {
-  for (auto p : {Prescription::entropy_drop, Prescription::probe_field, Prescription::hot_bubble, Prescription::no_seed,
-                 Prescription::thin_wall})
-    if (name_of(p) == s) return p;
+  if (const auto p = tunnelling::prescription_named(s)) return *p;
   throw std::logic_error("read_prescription: unvalidated name " + s);
 }
 
@@ -96,17 +94,6 @@ ScanChoices read_scan(const YAML::Node& n) {
 }
 
 }  // namespace
-
-std::string name_of(Prescription p) {
-  switch (p) {
-    case Prescription::entropy_drop: return "entropy_drop";
-    case Prescription::probe_field: return "probe_field";
-    case Prescription::hot_bubble: return "hot_bubble";
-    case Prescription::no_seed: return "no_seed";
-    case Prescription::thin_wall: return "thin_wall";
-  }
-  return "";
-}
 
 Scenario read_scenario(const YAML::Node& r) {
   const YAML::Node pop = r["population"], sm = r["standard_model"], ev = r["evaporation"], cos = r["cosmology"],

@@ -12,6 +12,7 @@
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/higgs/stability.hpp"
+#include "ember/tunnelling/action_table.hpp"
 #include "ember/units/constants.hpp"
 
 namespace {
@@ -94,5 +95,29 @@ int main() {
   report("higgs: stability verdict and unseeded decay", 50,
          [&] { sink = sink + analyse_stability(potential).lambda_min; });
   report("higgs: critical top mass (root find over runs)", 5, [&] { sink = sink + critical_top_mass(sm); });
+  using namespace ember::tunnelling;
+  TunnellingSetup setup;
+  setup.potential = &potential;
+  setup.standard_model = &potential;
+  report("tunnelling: one static solve (back-reacted, 1e5 M_Pl)", 20,
+         [&] { sink = sink + solve_static(potential, 1e5 * ember::units::planck_mass).action.value; });
+  report("tunnelling: one static solve (probe, 1e5 M_Pl)", 20, [&] {
+    StaticOptions probe;
+    probe.back_reaction = false;
+    sink = sink + solve_static(potential, 1e5 * ember::units::planck_mass, probe).action.value;
+  });
+  for (const auto p :
+       {Prescription::entropy_drop, Prescription::probe_field, Prescription::hot_bubble, Prescription::no_seed})
+    report("tunnelling: 60-point B(M) table, " + name_of(p), 1,
+           [&] { sink = sink + ActionTable(p, setup).nodes().size(); });
+  const ActionTable table_probe(Prescription::probe_field, setup);
+  double seed = 1e3 * ember::units::planck_mass;
+  report(
+      "tunnelling: one interpolated B(M) lookup", 1000000,
+      [&] {
+        seed = seed * 1.00001 > 1e9 * ember::units::planck_mass ? 1e3 * ember::units::planck_mass : seed * 1.00001;
+        sink = sink + table_probe.at(seed).action.value;
+      },
+      "lookups/s");
   return sink == 12345.0;  // keeps the work from being optimised away
 }

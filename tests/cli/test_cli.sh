@@ -165,6 +165,28 @@ run "higgs bad at" 2 -- "$ember" higgs --at "1e-23 s"
 stderr_has "higgs bad at" "--at"
 run "higgs top out of range" 2 -- "$ember" higgs --mt 300
 
+# --- bounce ---------------------------------------------------------------------------------------
+run "bounce seed" 0 -- "$ember" bounce --seed-mass "1e5 Mpl" --json
+json_ok "bounce seed"
+cp "$work/out" "$work/bounce.json"
+run "bounce text" 0 -- "$ember" bounce --seed-mass "3e6 Mpl" --prescriptions probe_field,hot_bubble --prefactor light_crossing
+stdout_has "bounce text" "probe_field"
+stdout_has "bounce text" "semiclassical"
+run "bounce scan" 0 -- "$ember" bounce --scan "1e3 Mpl" "1e7 Mpl" 5 --prescriptions probe_field --output "$work/scan.csv"
+grep -q '^seed_mass_Mpl,seed_mass_g,B_probe_field,branching_probe_field,flags_probe_field$' "$work/scan.csv" || fail "bounce --scan: no column line"
+[[ $(grep -vc '^#' "$work/scan.csv") == 6 ]] || fail "bounce --scan: expected 5 rows and the column line"
+grep -qiE 'nan|inf' "$work/scan.csv" && fail "bounce --scan: NaN or inf in the CSV"
+run "bounce thin wall" 0 -- "$ember" bounce --model thin_wall --tension "1e33 GeV^3" --energy-gap "2e45 GeV^4" --seed-mass "1e4 Mpl" --json
+cp "$work/out" "$work/thin.json"
+run "bounce below floor" 0 -- "$ember" bounce --seed-mass "10 Mpl" --prescriptions probe_field --json
+cp "$work/out" "$work/floor.json"
+run "bounce bad prescription" 2 -- "$ember" bounce --seed-mass "1e5 Mpl" --prescriptions probe_feild
+stderr_has "bounce bad prescription" "probe_feild"
+run "bounce thin wall needs a wall" 2 -- "$ember" bounce --seed-mass "1e5 Mpl" --prescriptions thin_wall
+stderr_has "bounce thin wall needs a wall" "tension"
+run "bounce bad mass" 2 -- "$ember" bounce --seed-mass "1e5 s"
+run "bounce bad scan" 2 -- "$ember" bounce --scan "1e3 Mpl" "1e2 Mpl" 5
+
 # Every --json output is exactly one JSON object; 1e15 g is 1e12 kg.
 python3 - "$work" <<'PY' || failures=$((failures + 1))
 import json, pathlib, sys
@@ -227,6 +249,24 @@ if abs(h["lambda_at"] + 0.0143) > 0.0005:
 st = json.loads((work / "higgs_stable.json").read_text())
 if st["verdict"] != "stable" or st["instability_scale_GeV"] is not None or st["log10_decay_probability"] is not None:
     print(f"FAIL: M_t = 168 GeV should be stable with no instability scale: {st['verdict']}")
+    bad += 1
+b = json.loads((work / "bounce.json").read_text())
+for name in ("entropy_drop", "probe_field", "hot_bubble", "no_seed"):
+    entry = b.get(name, {})
+    for key in ("B", "remnant_mass_Mpl", "decay_rate_per_s", "evaporation_rate_per_s", "branching_ratio"):
+        if key not in entry:
+            print(f"FAIL: bounce --json {name} lacks {key}")
+            bad += 1
+# Derived: the entropy-drop and probe-field actions agree for weak back-reaction.
+if abs(b["entropy_drop"]["B"] / b["probe_field"]["B"] - 1) > 1e-6:
+    print("FAIL: entropy_drop and probe_field differ at 1e5 M_Pl")
+    bad += 1
+t = json.loads((work / "thin.json").read_text())["thin_wall"]
+if not (t["B"] and t["B"] > 0):
+    print("FAIL: thin_wall B missing")
+    bad += 1
+if "below_semiclassical_floor" not in json.loads((work / "floor.json").read_text())["probe_field"]["flags"]:
+    print("FAIL: a 10 M_Pl seed is not flagged below the semiclassical floor")
     bad += 1
 sys.exit(1 if bad else 0)
 PY

@@ -72,7 +72,7 @@ class PolynomialPotential final : public Potential {
   double value(double h) const override;
   double slope(double h) const override;
   double curvature(double h) const override;
-  double field_max() const override { return 1e30; }
+  double field_max() const override { return 1e6 * scale_; }
   std::string description() const override;
 
  private:

@@ -12,6 +12,7 @@
 
 #include "ember/evaporation/trajectory.hpp"
 #include "ember/higgs/potential.hpp"
+#include "ember/tunnelling/rate.hpp"
 
 namespace ember::scenario {
 
@@ -73,8 +74,8 @@ struct EvaporationChoices {
   evaporation::TrajectoryOptions trajectory;  // cutoff_mass
 };
 
-enum class Prescription { entropy_drop, probe_field, hot_bubble, no_seed, thin_wall };
-enum class Prefactor { root_action, light_crossing };
+using tunnelling::Prefactor;
+using tunnelling::Prescription;
 struct TunnellingChoices {
   std::vector<Prescription> prescriptions;
   Prefactor prefactor;
@@ -135,8 +136,5 @@ struct Scenario {
 
 // Reads a resolved document (every key present and valid).
 Scenario read_scenario(const YAML::Node& resolved);
-
-// Names as written in scenarios.
-std::string name_of(Prescription p);
 
 }  // namespace ember::scenario

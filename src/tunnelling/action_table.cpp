@@ -1,0 +1,178 @@
+#include "ember/tunnelling/action_table.hpp"
+
+#include <fmt/format.h>
+#include <gsl/gsl_interp.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+
+#include "ember/core/errors.hpp"
+
+namespace ember::tunnelling {
+
+void ActionTableOptions::validate() const {
+  if (points < 4 || points > 100000)
+    throw InputError(fmt::format("B(M) table options: points = {}: must lie in [4, 100000]", points));
+  if (!(stop_action > 0)) throw InputError("B(M) table options: stop_action must be > 0");
+  if (!(max_seed > 0)) throw InputError("B(M) table options: max_seed must be > 0");
+  if (midpoint_stride < 1) throw InputError("B(M) table options: midpoint_stride must be >= 1");
+}
+
+// A run of nodes with increasing seed mass and finite B, splined in (ln M_+, ln B).
+struct ActionTable::Branch {
+  std::vector<double> ln_m, ln_b, ln_prefactor;
+  std::vector<std::size_t> index;  // into nodes_
+  std::shared_ptr<gsl_interp> b, prefactor;
+  bool has_prefactor = false;
+
+  bool covers(double u) const { return u >= ln_m.front() && u <= ln_m.back(); }
+  double eval(const std::shared_ptr<gsl_interp>& i, const std::vector<double>& y, double u) const {
+    return ln_m.size() == 1 ? y.front() : gsl_interp_eval(i.get(), ln_m.data(), y.data(), u, nullptr);
+  }
+};
+
+namespace {
+
+std::shared_ptr<gsl_interp> make_interp(const std::vector<double>& x, const std::vector<double>& y) {
+  const gsl_interp_type* type = x.size() >= 3 ? gsl_interp_steffen : gsl_interp_linear;
+  std::shared_ptr<gsl_interp> i(gsl_interp_alloc(type, x.size()), gsl_interp_free);
+  gsl_interp_init(i.get(), x.data(), y.data(), x.size());
+  return i;
+}
+
+// The node for a grid mass: entropy_drop is solved at the remnant mass, the rest at the seed.
+ActionPoint solve_node(Prescription p, const TunnellingSetup& s, double mass) {
+  if (p != Prescription::entropy_drop) return action_at(p, s, mass);
+  StaticOptions o;
+  o.newton_G = s.newton_G;
+  ActionPoint a;
+  try {
+    const StaticSolution sol = solve_static(*s.potential, mass, o);
+    a.remnant_mass = mass;
+    a.seed_mass = mass + sol.mass_shift.value;
+    const double k = 4 * units::pi * s.newton_G * (2 * mass + sol.mass_shift.value);
+    a.action = {k * sol.mass_shift.value, k * sol.mass_shift.error};
+    a.phi_horizon = sol.phi_horizon;
+    a.flags.resolution_limit = sol.at_resolution_limit;
+    a.note = sol.summary.message;
+  } catch (const NumericalError& e) {
+    if (e.solver() != "static instanton shooting") throw;
+    a = action_at(p, s, mass);  // the fallback, at the seed mass
+  }
+  a.flags.below_floor = a.seed_mass < s.semiclassical_floor;
+  return a;
+}
+
+}  // namespace
+
+ActionTable::ActionTable(Prescription p, const TunnellingSetup& s, const ActionTableOptions& o) : prescription_(p) {
+  o.validate();
+  const auto start = std::chrono::steady_clock::now();
+  floor_ = s.semiclassical_floor;
+  // Coarse decade search for the top: the first decade where B passes stop_action.
+  top_ = o.max_seed;
+  for (double m = floor_ * 10; m < o.max_seed; m *= 10) {
+    const ActionPoint a = action_at(p, s, m);
+    if (!a.flags.no_decay && a.action.value > o.stop_action) {
+      top_ = m;
+      break;
+    }
+  }
+  const double lo = std::log(floor_), hi = std::log(top_);
+  for (int i = 0; i < o.points; ++i) nodes_.push_back(solve_node(p, s, std::exp(lo + (hi - lo) * i / (o.points - 1))));
+
+  // Branches: maximal runs of finite B with increasing seed mass.
+  auto branch = std::make_shared<Branch>();
+  const auto close_branch = [&] {
+    if (branch->ln_m.empty()) return;
+    branch->b = make_interp(branch->ln_m, branch->ln_b);
+    if (branch->has_prefactor) branch->prefactor = make_interp(branch->ln_m, branch->ln_prefactor);
+    branches_.push_back(branch);
+    branch = std::make_shared<Branch>();
+  };
+  for (std::size_t i = 0; i < nodes_.size(); ++i) {
+    const ActionPoint& a = nodes_[i];
+    const bool usable = !a.flags.no_decay && a.action.value > 0 && std::isfinite(a.action.value);
+    const double u = std::log(a.seed_mass);
+    if (!usable || (!branch->ln_m.empty() && !(u > branch->ln_m.back()))) close_branch();
+    if (!usable) continue;
+    branch->ln_m.push_back(u);
+    branch->ln_b.push_back(std::log(a.action.value));
+    branch->has_prefactor = a.own_prefactor.has_value();
+    branch->ln_prefactor.push_back(a.own_prefactor ? std::log(*a.own_prefactor) : 0.0);
+    branch->index.push_back(i);
+  }
+  close_branch();
+
+  // Interpolation error at midpoints, as an absolute error in B.
+  for (int i = 0; i + 1 < o.points; i += o.midpoint_stride) {
+    const double mid = std::exp(lo + (hi - lo) * (i + 0.5) / (o.points - 1));
+    const ActionPoint direct = solve_node(p, s, mid);
+    if (direct.flags.no_decay) continue;
+    const ActionPoint looked = interpolate(direct.seed_mass);
+    if (looked.flags.no_decay) continue;
+    summary_.interpolation_error =
+        std::max(summary_.interpolation_error,
+                 std::abs(looked.action.value - direct.action.value) / std::max(direct.action.value, 1.0));
+    ++summary_.checks;
+  }
+  summary_.nodes = static_cast<int>(nodes_.size());
+  summary_.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+  summary_.message = fmt::format(
+      "{}: {} nodes from {:.3g} to {:.3g} M_Pl, {} branch{}, interpolation error in B "
+      "{:.2g} of max(B, 1) ({} checks), {:.2f} s",
+      name_of(p), summary_.nodes, floor_ / units::planck_mass, top_ / units::planck_mass, branches_.size(),
+      branches_.size() == 1 ? "" : "es", summary_.interpolation_error, summary_.checks, summary_.seconds);
+}
+
+ActionPoint ActionTable::interpolate(double seed) const {
+  const double u = std::log(seed);
+  ActionPoint best;
+  best.seed_mass = seed;
+  best.action = {INFINITY, 0};
+  best.flags.no_decay = true;
+  int covering = 0;
+  for (const auto& b : branches_) {
+    if (!b->covers(u)) continue;
+    ++covering;
+    const double value = std::exp(b->eval(b->b, b->ln_b, u));
+    if (value >= best.action.value) continue;
+    // Flags and notes from the nearer bracketing node.
+    const auto it = std::lower_bound(b->ln_m.begin(), b->ln_m.end(), u);
+    std::size_t k = static_cast<std::size_t>(std::max<std::ptrdiff_t>(0, it - b->ln_m.begin()));
+    if (k > 0 && (k == b->ln_m.size() || u - b->ln_m[k - 1] < b->ln_m[k] - u)) --k;
+    const ActionPoint& node = nodes_[b->index[k]];
+    best = node;
+    best.seed_mass = seed;
+    best.remnant_mass = seed * node.remnant_mass / node.seed_mass;
+    best.action = {value, node.action.error * value / node.action.value};
+    best.own_prefactor =
+        b->has_prefactor ? std::optional<double>(std::exp(b->eval(b->prefactor, b->ln_prefactor, u))) : std::nullopt;
+  }
+  best.flags.several_branches |= covering > 1;
+  return best;
+}
+
+ActionPoint ActionTable::at(double seed) const {
+  if (!(seed > 0) || !std::isfinite(seed))
+    throw InputError(fmt::format("B(M) table lookup: seed mass {} GeV; expected a finite mass > 0", seed));
+  const double lowest = nodes_.front().seed_mass, highest = nodes_.back().seed_mass;
+  ActionPoint a = interpolate(std::clamp(seed, lowest, highest));
+  a.seed_mass = seed;
+  if (seed < lowest) a.flags.below_floor = true;
+  if (seed > highest && !a.flags.no_decay) {
+    // Beyond the top B only grows: hold it at least at the top value, extrapolated in ln-ln.
+    const auto& b = branches_.back();
+    if (b->ln_m.size() >= 2) {
+      const std::size_t n = b->ln_m.size();
+      const double slope = (b->ln_b[n - 1] - b->ln_b[n - 2]) / (b->ln_m[n - 1] - b->ln_m[n - 2]);
+      a.action.value = std::exp(b->ln_b[n - 1] + std::max(0.0, slope) * (std::log(seed) - b->ln_m[n - 1]));
+    }
+    a.flags.beyond_table = true;
+  }
+  if (!a.flags.no_decay) a.action.error += summary_.interpolation_error * std::max(a.action.value, 1.0);
+  return a;
+}
+
+}  // namespace ember::tunnelling

@@ -1,0 +1,321 @@
+#include "ember/tunnelling/prescription.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+
+#include "ember/core/errors.hpp"
+#include "ember/tunnelling/flat_bounce.hpp"
+#include "ember/tunnelling/thermal_potential.hpp"
+
+namespace ember::tunnelling {
+
+std::string name_of(Prescription p) {
+  switch (p) {
+    case Prescription::entropy_drop: return "entropy_drop";
+    case Prescription::probe_field: return "probe_field";
+    case Prescription::hot_bubble: return "hot_bubble";
+    case Prescription::no_seed: return "no_seed";
+    case Prescription::thin_wall: return "thin_wall";
+  }
+  return "";
+}
+
+std::optional<Prescription> prescription_named(const std::string& name) {
+  for (const auto p : all_prescriptions)
+    if (name_of(p) == name) return p;
+  return std::nullopt;
+}
+
+std::string assumptions(Prescription p) {
+  switch (p) {
+    case Prescription::entropy_drop:
+      return "static Euclidean bubble around the hole with gravitational back-reaction; B = (A_+ - A_-)/(4G), the drop "
+             "in horizon entropy; the hole in equilibrium with its radiation (Hartle-Hawking state), a remnant hole "
+             "inside the bubble";
+    case Prescription::probe_field:
+      return "the static bubble on a fixed Schwarzschild background, no back-reaction; B = E/T_H, a Boltzmann factor "
+             "for the bubble's energy at the Hawking temperature";
+    case Prescription::hot_bubble:
+      return "flat-space O(3) thermal bubble at T = T_H with the Standard Model thermal mass: the enhancement is only "
+             "thermal; rate T^4 (S3/2piT)^(3/2) e^(-S3/T) in a near-horizon volume";
+    case Prescription::no_seed:
+      return "homogeneous flat-space O(4) decay with no black hole, the baseline; rate per volume times the horizon "
+             "volume, for comparison only";
+    case Prescription::thin_wall:
+      return "a thin wall of tension sigma and energy gap epsilon: the static wall around the hole from the Israel "
+             "junction conditions, or the Coleman-De Luccia no-seed action when there is none";
+  }
+  return "";
+}
+
+std::vector<std::string> Flags::list() const {
+  std::vector<std::string> out;
+  if (below_floor) out.emplace_back("below_semiclassical_floor");
+  if (fallback) out.emplace_back("no_static_solution_fallback");
+  if (resolution_limit) out.emplace_back("thinner_than_resolution");
+  if (several_branches) out.emplace_back("several_branches");
+  if (near_branch_point) out.emplace_back("near_branch_point");
+  if (outside_running) out.emplace_back("outside_running_range");
+  if (no_decay) out.emplace_back("no_decay");
+  if (beyond_table) out.emplace_back("beyond_table");
+  return out;
+}
+
+Flags& Flags::operator|=(const Flags& o) {
+  below_floor |= o.below_floor;
+  fallback |= o.fallback;
+  resolution_limit |= o.resolution_limit;
+  several_branches |= o.several_branches;
+  near_branch_point |= o.near_branch_point;
+  outside_running |= o.outside_running;
+  no_decay |= o.no_decay;
+  beyond_table |= o.beyond_table;
+  return *this;
+}
+
+namespace {
+
+constexpr double pi = units::pi;
+
+double horizon_volume(const TunnellingSetup& s, double mass) {
+  const double r_h = 2 * s.newton_G * mass;
+  return 4 * pi * r_h * r_h * r_h / 3;
+}
+
+ActionPoint fallback_point(const TunnellingSetup& s, double seed, const std::string& why) {
+  ActionPoint a;
+  a.seed_mass = seed;
+  a.remnant_mass = 0;
+  a.action = {4 * pi * s.newton_G * seed * seed, 0.0};
+  a.flags.fallback = true;
+  a.note = why + "; fallback B = 4 pi G M^2 (remnant-free)";
+  return a;
+}
+
+bool is_no_solution(const NumericalError& e) {
+  return e.solver() == "static instanton shooting";
+}
+
+ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
+  StaticOptions o;
+  o.newton_G = s.newton_G;
+  // M_+ = M_- + DeltaM(M_-): iterate M_- <- M_+ - DeltaM(M_-) from M_- = M_+.
+  double m_minus = seed, previous_dm = 0, previous_m = 0;
+  StaticSolution sol;
+  ActionPoint a;
+  a.seed_mass = seed;
+  for (int it = 0; it < 40; ++it) {
+    try {
+      sol = solve_static(*s.potential, m_minus, o);
+    } catch (const NumericalError& e) {
+      if (!is_no_solution(e)) throw;
+      return fallback_point(s, seed, e.what());
+    }
+    const double next = seed - sol.mass_shift.value;
+    if (it > 0 && m_minus != previous_m) {
+      const double slope = 1 + (sol.mass_shift.value - previous_dm) / (m_minus - previous_m);  // dM_+/dM_-
+      a.flags.near_branch_point |= std::abs(slope) < 1e-2;
+    }
+    previous_dm = sol.mass_shift.value;
+    previous_m = m_minus;
+    if (std::abs(next - m_minus) <= 1e-14 * seed || !(next > 0)) break;
+    m_minus = next;
+  }
+  a.remnant_mass = sol.remnant_mass;
+  // B = 4 pi G (M_+ + M_-) DeltaM with DeltaM itself: M_+ - M_- can be below double precision.
+  const double k = 4 * pi * s.newton_G * (2 * sol.remnant_mass + sol.mass_shift.value);
+  a.action = {k * sol.mass_shift.value, k * sol.mass_shift.error};
+  // Other branches need M_+(M_-) to fold over, which takes Delta M of order M somewhere: when the
+  // back-reaction is not negligible, scan lighter remnants for further solutions and keep the
+  // lowest B. (For Standard Model bubbles Delta M / M < 1e-9 and the scan is skipped.)
+  if (std::abs(sol.mass_shift.value) > 1e-4 * seed) {
+    int found = 1;
+    double prev_m = 0, prev_g = 0;
+    for (int i = 0; i <= 12; ++i) {
+      const double m = seed * std::pow(10.0, -2.0 + 2.0 * i / 12.0) * (1 - 1e-9);
+      double g;
+      try {
+        const StaticSolution trial = solve_static(*s.potential, m, o);
+        if (trial.at_resolution_limit) {  // not a solution to bracket with
+          prev_m = 0;
+          continue;
+        }
+        g = m + trial.mass_shift.value - seed;
+      } catch (const NumericalError& e) {
+        if (!is_no_solution(e)) throw;
+        prev_m = 0;
+        continue;
+      }
+      if (prev_m > 0 && (g < 0) != (prev_g < 0)) {
+        double lo = prev_m, hi = m, g_lo = prev_g;
+        for (int it = 0; it < 30; ++it) {
+          const double mid = std::sqrt(lo * hi);
+          const double gm = mid + solve_static(*s.potential, mid, o).mass_shift.value - seed;
+          if ((gm < 0) == (g_lo < 0)) {
+            lo = mid;
+            g_lo = gm;
+          } else {
+            hi = mid;
+          }
+        }
+        const StaticSolution other = solve_static(*s.potential, std::sqrt(lo * hi), o);
+        const double k2 = 4 * pi * s.newton_G * (2 * other.remnant_mass + other.mass_shift.value);
+        const double b2 = k2 * other.mass_shift.value;
+        if (std::abs(other.remnant_mass - a.remnant_mass) > 1e-6 * seed) {
+          ++found;
+          if (b2 < a.action.value) {
+            a.action = {b2, k2 * other.mass_shift.error};
+            a.remnant_mass = other.remnant_mass;
+            a.phi_horizon = other.phi_horizon;
+          }
+        }
+      }
+      prev_m = m;
+      prev_g = g;
+    }
+    a.flags.several_branches = found > 1;
+  }
+  if (a.remnant_mass == sol.remnant_mass) a.phi_horizon = sol.phi_horizon;
+  a.flags.resolution_limit = sol.at_resolution_limit;
+  a.note = sol.summary.message;
+  return a;
+}
+
+ActionPoint probe_field(const TunnellingSetup& s, double seed) {
+  StaticOptions o;
+  o.newton_G = s.newton_G;
+  o.back_reaction = false;
+  ActionPoint a;
+  a.seed_mass = a.remnant_mass = seed;
+  try {
+    const StaticSolution sol = solve_static(*s.potential, seed, o);
+    a.action = sol.action;
+    a.phi_horizon = sol.phi_horizon;
+    a.flags.resolution_limit = sol.at_resolution_limit;
+    a.note = sol.summary.message;
+  } catch (const NumericalError& e) {
+    if (!is_no_solution(e)) throw;
+    return fallback_point(s, seed, e.what());
+  }
+  return a;
+}
+
+ActionPoint no_decay(double seed, const std::string& why) {
+  ActionPoint a;
+  a.seed_mass = a.remnant_mass = seed;
+  a.action = {INFINITY, 0.0};
+  a.flags.no_decay = true;
+  a.note = why;
+  return a;
+}
+
+ActionPoint hot_bubble(const TunnellingSetup& s, double seed) {
+  if (!s.standard_model)
+    throw InputError(
+        "hot_bubble: needs the Standard Model potential (its thermal mass); expected the standard_model "
+        "potential form");
+  const double t = 1 / (8 * pi * s.newton_G * seed);  // T_H
+  const higgs::Running& run = s.standard_model->running();
+  ThermalPotential thermal(*s.potential, thermal_mass_squared(*s.standard_model, t));
+  FlatBounceOptions o;
+  o.dimensions = 3;
+  FlatBounce b;
+  try {
+    b = solve_flat_bounce(thermal, o);
+  } catch (const InputError&) {
+    return no_decay(seed, fmt::format("thermal mass at T_H = {:.3g} GeV lifts the potential everywhere: no bubble", t));
+  }
+  ActionPoint a;
+  a.seed_mass = a.remnant_mass = seed;
+  a.action = {b.action.value / t, b.action.error / t};
+  a.own_prefactor =
+      s.hot_bubble_volume * horizon_volume(s, seed) * std::pow(t, 4) * std::pow(a.action.value / (2 * pi), 1.5);
+  a.flags.outside_running = t > run.mu_max() || t < run.mu_min();
+  a.note = fmt::format("T_H = {:.4g} GeV; {}", t, b.summary.message);
+  return a;
+}
+
+ActionPoint no_seed(const TunnellingSetup& s, double seed) {
+  ActionPoint a;
+  a.seed_mass = a.remnant_mass = seed;
+  if (s.standard_model) {
+    // S = 8 pi^2 / (3 |q(mu)|) at the mu maximising mu^4 e^{-S} (the higgs module's prescription).
+    const higgs::Running& run = s.standard_model->running();
+    const higgs::StandardModelOptions& so = s.standard_model->options();
+    const double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass;
+    double best = -INFINITY, best_s = INFINITY, best_mu = 0;
+    const double t0 = std::log(run.mu_min()), t1 = std::log(std::min(run.mu_max(), units::planck_mass));
+    for (double t = t0; t <= t1; t += 0.005) {
+      const double mu = std::exp(t), x = mu * mu / mbar2;
+      const double q = run.lambda(mu) + 2.0 / 3 * so.lambda6 * x + 0.5 * so.lambda8 * x * x;
+      if (q >= 0) continue;
+      const double action = 8 * pi * pi / (3 * std::abs(q)), log_rate = 4 * t - action;
+      if (log_rate > best) {
+        best = log_rate;
+        best_s = action;
+        best_mu = mu;
+      }
+    }
+    if (!std::isfinite(best_s)) return no_decay(seed, "the quartic stays positive up to M_Pl: no flat-space bounce");
+    a.action = {best_s, 1e-10 * best_s};
+    a.own_prefactor = horizon_volume(s, seed) * std::pow(best_mu, 4);
+    a.note = fmt::format("Fubini bounce at mu = {:.4g} GeV", best_mu);
+    return a;
+  }
+  FlatBounce b;
+  try {
+    b = solve_flat_bounce(*s.potential, {});
+  } catch (const InputError& e) {
+    return no_decay(seed, e.what());
+  }
+  a.action = b.action;
+  a.own_prefactor = horizon_volume(s, seed) / std::pow(b.wall_radius, 4);
+  a.note = b.summary.message;
+  return a;
+}
+
+ActionPoint thin_wall(const TunnellingSetup& s, double seed) {
+  if (!s.thin_wall)
+    throw InputError(
+        "thin_wall: needs the wall tension and energy gap; expected tunnelling.thin_wall.tension and "
+        "energy_gap (or --tension and --energy-gap)");
+  const std::vector<SeededWall> walls = seeded_thin_walls(*s.thin_wall, seed, s.newton_G);
+  ActionPoint a;
+  a.seed_mass = seed;
+  if (!walls.empty()) {
+    a.action = {walls.front().action, 1e-12 * walls.front().action};
+    a.remnant_mass = walls.front().remnant_mass;
+    a.flags.several_branches = walls.size() > 1;
+    a.note = fmt::format("static wall at R = {:.4g} GeV^-1 ({} branch{})", walls.front().radius, walls.size(),
+                         walls.size() > 1 ? "es" : "");
+    return a;
+  }
+  const auto cdl = coleman_de_luccia(*s.thin_wall, s.newton_G);
+  if (!cdl) return no_decay(seed, "no static wall, and gravity forbids the no-seed decay (Coleman-De Luccia)");
+  a.remnant_mass = seed;
+  a.action = {cdl->action, 1e-12 * cdl->action};
+  a.flags.fallback = true;
+  a.note = "no static wall around the hole: the no-seed Coleman-De Luccia action";
+  return a;
+}
+
+}  // namespace
+
+ActionPoint action_at(Prescription p, const TunnellingSetup& s, double seed) {
+  if (!s.potential) throw InputError("tunnelling: no potential given");
+  if (!(seed > 0) || !std::isfinite(seed))
+    throw InputError(fmt::format("tunnelling: seed mass {} GeV; expected a finite mass > 0", seed));
+  ActionPoint a;
+  switch (p) {
+    case Prescription::entropy_drop: a = entropy_drop(s, seed); break;
+    case Prescription::probe_field: a = probe_field(s, seed); break;
+    case Prescription::hot_bubble: a = hot_bubble(s, seed); break;
+    case Prescription::no_seed: a = no_seed(s, seed); break;
+    case Prescription::thin_wall: a = thin_wall(s, seed); break;
+  }
+  a.flags.below_floor = seed < s.semiclassical_floor;
+  return a;
+}
+
+}  // namespace ember::tunnelling

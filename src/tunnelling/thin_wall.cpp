@@ -1,0 +1,76 @@
+#include "ember/tunnelling/thin_wall.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <functional>
+
+#include "ember/units/constants.hpp"
+
+namespace ember::tunnelling {
+
+double thin_wall_radius(const ThinWall& w) {
+  return 3 * w.sigma / w.epsilon;
+}
+
+double thin_wall_action(const ThinWall& w) {
+  return 27 * units::pi * units::pi * std::pow(w.sigma, 4) / (2 * std::pow(w.epsilon, 3));
+}
+
+std::optional<GravitatingThinWall> coleman_de_luccia(const ThinWall& w, double newton_G) {
+  const double r0 = thin_wall_radius(w);
+  const double l2 = 3 / (8 * units::pi * newton_G * w.epsilon);  // AdS radius squared of the true vacuum
+  const double x = 1 - r0 * r0 / (4 * l2);
+  if (!(x > 0)) return std::nullopt;
+  return GravitatingThinWall{thin_wall_action(w) / (x * x), r0 / x};
+}
+
+double static_bubble_energy(const ThinWall& w) {
+  return 16 * units::pi * std::pow(w.sigma, 3) / (3 * w.epsilon * w.epsilon);
+}
+
+std::vector<SeededWall> seeded_thin_walls(const ThinWall& w, double seed, double G) {
+  const double k = 4 * units::pi * G * w.sigma;
+  const double inv_l2 = 8 * units::pi * G * w.epsilon / 3;  // 1 / L^2
+  const double r_h = 2 * G * seed;
+  // M_+ - M_- from the junction condition at radius R.
+  const auto delta = [&](double r) {
+    const double b = std::sqrt(1 - r_h / r);
+    return k * r * r / G * (b - r * inv_l2 / (2 * k) + k * r / 2);
+  };
+  // Force balance with M_- fixed: g(R) = b b' - G M_+ / R^2.
+  const auto g = [&](double r) {
+    const double b = std::sqrt(1 - r_h / r);
+    const double db = -2 * G * delta(r) / (k * r * r * r) + inv_l2 / (2 * k) - k / 2;
+    return b * db - G * seed / (r * r);
+  };
+  std::vector<SeededWall> out;
+  // Scan R in ln from just outside the horizon to far beyond the flat-space radius.
+  const double r_flat = 2 * w.sigma / w.epsilon;
+  const double lo = std::log(r_h * (1 + 1e-9)), hi = std::log(std::max(r_flat, r_h) * 1e4);
+  const int n = 20000;
+  double prev_u = lo, prev = g(std::exp(lo));
+  for (int i = 1; i <= n; ++i) {
+    const double u = lo + (hi - lo) * i / n, cur = g(std::exp(u));
+    if (std::isfinite(prev) && std::isfinite(cur) && (prev < 0) != (cur < 0)) {
+      double a = prev_u, b = u, ga = prev;
+      for (int it = 0; it < 200; ++it) {
+        const double m = 0.5 * (a + b), gm = g(std::exp(m));
+        if ((gm < 0) == (ga < 0)) {
+          a = m;
+          ga = gm;
+        } else {
+          b = m;
+        }
+      }
+      const double r = std::exp(0.5 * (a + b)), d = delta(r), m_minus = seed - d;
+      // B = 4 pi G (M_+ + M_-)(M_+ - M_-), formed from the difference itself (no cancellation).
+      if (d >= 0 && m_minus >= 0) out.push_back({r, m_minus, 4 * units::pi * G * (2 * seed - d) * d});
+    }
+    prev_u = u;
+    prev = cur;
+  }
+  std::sort(out.begin(), out.end(), [](const SeededWall& a, const SeededWall& b) { return a.action < b.action; });
+  return out;
+}
+
+}  // namespace ember::tunnelling
