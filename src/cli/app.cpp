@@ -44,7 +44,7 @@ int run(int argc, char** argv) {
       "Every command that prints results takes --json for one JSON object on stdout.");
 
   const std::vector<Command> commands{add_check(app),     add_schema(app), add_convert(app), add_greybody(app),
-                                      add_evaporate(app), add_higgs(app),  add_bounce(app)};
+                                      add_evaporate(app), add_higgs(app),  add_bounce(app),  add_run(app)};
 
   try {
     app.parse(argc, argv);

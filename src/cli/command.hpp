@@ -23,6 +23,7 @@ Command add_greybody(CLI::App& parent);
 Command add_evaporate(CLI::App& parent);
 Command add_higgs(CLI::App& parent);
 Command add_bounce(CLI::App& parent);
+Command add_run(CLI::App& parent);
 
 // A quantity given on the command line, in internal units; errors name the option.
 double quantity_option(const std::string& option, const std::string& text, units::Kind kind,

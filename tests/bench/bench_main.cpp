@@ -12,6 +12,8 @@
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/higgs/stability.hpp"
+#include "ember/scenario/job.hpp"
+#include "ember/scenario/load.hpp"
 #include "ember/tunnelling/action_table.hpp"
 #include "ember/units/constants.hpp"
 
@@ -119,5 +121,21 @@ int main() {
         sink = sink + table_probe.at(seed).action.value;
       },
       "lookups/s");
+  // The main job: a 100-mass x 3-prescription constraint curve and a 5 x 5 x 3 Higgs-input band.
+  const std::string curve =
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-70}\n"
+      "tunnelling: {prescriptions: [entropy_drop, probe_field, hot_bubble]}\n"
+      "scan: {masses: {from: 1 g, to: 1e15 g, points: 100}}\n";
+  const auto curve_scenario = ember::scenario::load_scenario_text(curve, "bench-curve.yaml", ".");
+  report("run: 100-mass x 3-prescription constraint curve", 1,
+         [&] { sink = sink + ember::scenario::run_job(curve_scenario.scenario).seconds; });
+  const std::string band =
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-70}\n"
+      "tunnelling: {prescriptions: [probe_field]}\n"
+      "scan:\n  masses: {from: 1 g, to: 1e15 g, points: 20}\n"
+      "  band: {top_mass: {points: 5}, higgs_mass: {points: 5}, alpha_s: {points: 3}}\n";
+  const auto band_scenario = ember::scenario::load_scenario_text(band, "bench-band.yaml", ".");
+  report("run: 5 x 5 x 3 Higgs-input band (probe_field, 20 masses)", 1,
+         [&] { sink = sink + ember::scenario::run_job(band_scenario.scenario).seconds; });
   return sink == 12345.0;  // keeps the work from being optimised away
 }

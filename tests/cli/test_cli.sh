@@ -187,6 +187,32 @@ stderr_has "bounce thin wall needs a wall" "tension"
 run "bounce bad mass" 2 -- "$ember" bounce --seed-mass "1e5 s"
 run "bounce bad scan" 2 -- "$ember" bounce --scan "1e3 Mpl" "1e2 Mpl" 5
 
+# --- run ------------------------------------------------------------------------------------------
+sed -e 's/points: 31/points: 4/' -e 's|directory: ember-out/demo|directory: unused|' "$src/configs/demo.yaml" >"$work/demo-small.yaml"
+run "run demo" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run"
+stdout_has "run demo" "EXCLUDED"
+stdout_has "run demo" "caution: The constraint disappears if new physics stabilises"
+stdout_has "run demo" "semiclassical floor"
+for f in summary.json constraint.csv decay.csv resolved.yaml rates.csv potential.csv; do
+  [[ -s "$work/run/$f" ]] || fail "run demo: no $f"
+done
+grep -qiE '(^|[,:[ ])-?(nan|inf|infinity)([],} ]|$)' "$work/run/"*.csv "$work/run/summary.json" && fail "run demo: NaN or inf in the outputs"
+grep -q '^# scenario .*hash' "$work/run/constraint.csv" || fail "run demo: constraint.csv lacks the hash line"
+cp "$work/run/summary.json" "$work/run-summary.json"
+run "run resolved checks" 0 -- "$ember" check "$work/run/resolved.yaml"
+if /usr/bin/python3 -c 'import matplotlib' 2>/dev/null; then
+  for f in constraint rates potential; do
+    [[ -s "$work/run/$f.png" && -s "$work/run/$f.pdf" ]] || fail "run demo: plot $f missing"
+  done
+fi
+ls -a "$work/run" | grep -q '\.tmp\.' && fail "run demo: temporary file left behind"
+run "run json" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run2" --json --no-plots
+json_ok "run json"
+run "run bad scenario" 2 -- "$ember" run "$src/tests/data/bad/unknown_key.yaml" -o "$work/never-run"
+[[ -e "$work/never-run" ]] && fail "run bad scenario: wrote output"
+run "run unwritable folder" 2 -- "$ember" run "$work/demo-small.yaml" -o "$src/configs/demo.yaml" --no-plots
+stderr_has "run unwritable folder" "cannot write"
+
 # Every --json output is exactly one JSON object; 1e15 g is 1e12 kg.
 python3 - "$work" <<'PY' || failures=$((failures + 1))
 import json, pathlib, sys
@@ -268,6 +294,16 @@ if not (t["B"] and t["B"] > 0):
 if "below_semiclassical_floor" not in json.loads((work / "floor.json").read_text())["probe_field"]["flags"]:
     print("FAIL: a 10 M_Pl seed is not flagged below the semiclassical floor")
     bad += 1
+r = json.loads((work / "run-summary.json").read_text())
+for key in ("ember_version", "scenario_hash", "scenario", "cautions", "prescriptions", "unseeded_baseline", "band"):
+    if key not in r:
+        print(f"FAIL: summary.json lacks {key}")
+        bad += 1
+for name, p in r.get("prescriptions", {}).items():
+    for key in ("N_lightcone", "N_hubble", "survival_probability", "excluded"):
+        if key not in p:
+            print(f"FAIL: summary.json prescription {name} lacks {key}")
+            bad += 1
 sys.exit(1 if bad else 0)
 PY
 

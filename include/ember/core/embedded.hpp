@@ -6,5 +6,6 @@
 namespace ember::embedded {
 
 std::string_view standard_model_yaml();  // data/standard_model.yaml
+std::string_view cosmology_yaml();       // data/cosmology.yaml
 
 }  // namespace ember::embedded

@@ -1,0 +1,64 @@
+// Expected decays for a population, and the largest abundance still allowed.
+//
+// Units: internal natural units; counts are plain numbers.
+//
+// For each formation mass a Response holds the decays per unit beta (lightcone.hpp's counts).
+// A monochromatic population of abundance beta gives N = beta K(M). An extended one spreads
+// f_PBH over mass with psi (int psi dM = 1): beta(M) dM = f psi(M) / (f/beta)(M) dM, so
+//   N = f int psi(M) K(M) / (f/beta)(M) dM,
+// integrated by the trapezoidal rule in ln M on the response grid. Counts are linear in the
+// abundance, so the largest allowed abundance is threshold / (N per unit abundance).
+#pragma once
+
+#include <functional>
+#include <optional>
+#include <vector>
+
+#include "ember/population/decay.hpp"
+#include "ember/population/mass_function.hpp"
+
+namespace ember::population {
+
+struct Response {
+  double mass = 0;  // formation mass, GeV
+  Formation formation;
+  Decay decay;
+  double lightcone_per_beta = 0;  // expected decays in our past light cone per unit beta
+  double hubble_per_beta = 0;     // per Hubble volume at the decay, per unit beta
+  double f_per_beta = 0;
+  double count_per_beta = 0;  // holes formed inside our past light cone per unit beta
+};
+
+struct ResponseContext {
+  const cosmology::Background* background = nullptr;
+  const evaporation::MassLoss* mass_loss = nullptr;
+  evaporation::TrajectoryOptions trajectory;
+  DecayOptions decay;
+  double collapse_fraction = 0.2;
+};
+
+Response response_at(double mass, const tunnelling::ActionTable& table, const ResponseContext& c);
+
+// Responses on a log grid covering [low, high] with `per_decade` points per decade.
+std::vector<Response> response_grid(double low, double high, int per_decade, const tunnelling::ActionTable& table,
+                                    const ResponseContext& c);
+
+enum class AbundanceMeasure { beta, f_pbh, lightcone_count };
+
+struct Counts {
+  double lightcone = 0;        // N in our past light cone
+  double hubble = 0;           // per Hubble volume at the decay (mass-weighted for extended spectra)
+  double f_pbh = 0;            // the abundance as f_PBH
+  double beta = 0;             // the abundance as beta (at the characteristic mass for extended spectra)
+  double from_evaporated = 0;  // the part of N from holes that are gone by today
+};
+
+// Counts for a spectrum with its abundance; the responses must cover the spectrum's support
+// (monochromatic: responses[0] at its mass).
+Counts counts_for(const MassFunction& spectrum, AbundanceMeasure measure, double value,
+                  const std::vector<Response>& responses);
+
+// N per unit of the amplitude (beta for a monochromatic spectrum, f_PBH otherwise).
+double lightcone_per_amplitude(const MassFunction& spectrum, const std::vector<Response>& responses);
+
+}  // namespace ember::population

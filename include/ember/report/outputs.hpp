@@ -1,0 +1,33 @@
+// Writing the results of `ember run`: summary.json, constraint.csv, decay.csv, the plot data
+// (rates.csv, potential.csv), resolved.yaml and the plots, each written atomically. CSV files open
+// with commented lines giving the units and the scenario hash. No NaN or inf is ever written:
+// missing values are empty cells in CSV and null in JSON.
+// Units: masses in g, times in s, energies in GeV in every file.
+#pragma once
+
+#include <filesystem>
+#include <string>
+#include <vector>
+
+#include "ember/scenario/job.hpp"
+#include "ember/scenario/load.hpp"
+
+namespace ember::report {
+
+// The cautions every summary states.
+std::vector<std::string> cautions(const scenario::Scenario& s);
+
+struct Written {
+  std::vector<std::string> files;
+  std::string plots_note;  // why plots were or were not made
+};
+
+Written write_outputs(const scenario::LoadedScenario& loaded, const scenario::JobResults& results,
+                      const std::filesystem::path& directory, bool plots);
+
+nlohmann::ordered_json summary_json(const scenario::LoadedScenario& loaded, const scenario::JobResults& results);
+
+// The short human summary for the terminal.
+std::string summary_text(const scenario::LoadedScenario& loaded, const scenario::JobResults& results);
+
+}  // namespace ember::report

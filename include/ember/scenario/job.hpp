@@ -1,0 +1,80 @@
+// The whole job of `ember run`: from a typed Scenario to decay counts, constraint curves and the
+// Higgs-input band, through every stage in data-flow order (cosmology, evaporation, higgs,
+// tunnelling, population). The results are plain data for the report module to write.
+//
+// Units: internal natural units throughout (GeV, GeV^-1); the report converts.
+#pragma once
+
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "ember/higgs/stability.hpp"
+#include "ember/population/counts.hpp"
+#include "ember/scenario/scenario.hpp"
+
+namespace ember::scenario {
+
+// Numerical choices of the job, with their rule; not scenario keys.
+struct JobOptions {
+  int table_points = 30;          // B(M) nodes per prescription and Higgs point (ActionTableOptions)
+  int table_check_stride = 6;     // check every this many B(M) interval midpoints
+  int responses_per_decade = 10;  // formation masses per decade for extended spectra
+  int decay_grid_points = 500;    // ln M grid for decay times and crossovers (DecayOptions)
+  int plot_points = 120;          // seed masses for the Gamma_D/Gamma_H plot data
+};
+
+struct HiggsPoint {
+  higgs::Inputs inputs;
+  double lambda6 = 0, lambda8 = 0;
+  bool central = false;
+  std::string label;
+};
+
+struct CurveRow {
+  double mass = 0;                            // formation mass (monochromatic) or characteristic mass (GeV)
+  double width = 0;                           // lognormal width, 0 when not scanned
+  std::optional<double> beta_max, f_max;      // none: no decays, no constraint
+  std::optional<double> band_low, band_high;  // beta_max envelope over the band points with a constraint
+  int band_without = 0;                       // band points where there is no constraint here
+};
+
+struct PrescriptionOutcome {
+  tunnelling::Prescription prescription;
+  population::Counts counts;  // the scenario's own abundance, central inputs
+  double survival = 1;        // e^{-N}
+  bool excluded = false;
+  std::vector<CurveRow> curve;
+  std::vector<population::Response> scan;  // monochromatic responses at the scan masses (decay.csv)
+  std::string table_summary;
+  std::vector<double> plot_ratio;  // Gamma_D / Gamma_H at JobResults::plot_masses
+  std::vector<std::string> notes;
+};
+
+struct BandPoint {
+  HiggsPoint point;
+  higgs::Verdict verdict = higgs::Verdict::stable;
+  bool constraint = false;
+  std::optional<double> log10_unseeded;
+};
+
+struct JobResults {
+  std::string potential;                            // description
+  std::optional<higgs::StabilityReport> stability;  // Standard Model potentials
+  std::string spectrum;                             // description
+  bool no_constraint = false;                       // stable potential or no bubble: no seeded decay at all
+  std::string no_constraint_reason;
+  std::vector<PrescriptionOutcome> outcomes;
+  std::vector<BandPoint> band;                                   // every Higgs point, central first
+  std::vector<double> plot_masses;                               // GeV
+  std::vector<double> plot_field, plot_lambda, plot_lambda_eff;  // the potential, for plots
+  double survivors_mass = 0;                                     // holes above this mass survive today (GeV)
+  double seconds = 0;
+};
+
+// Throws InputError for a prescription the potential cannot take (hot_bubble needs the Standard
+// Model; thin_wall needs a wall), NumericalError when a solver fails.
+JobResults run_job(const Scenario& scenario, const JobOptions& options = {});
+
+}  // namespace ember::scenario

@@ -1,0 +1,160 @@
+#include "ember/population/mass_function.hpp"
+
+#include <fmt/format.h>
+#include <gsl/gsl_sf_gamma.h>
+#include <gsl/gsl_spline.h>
+
+#include <cmath>
+#include <fstream>
+#include <sstream>
+
+#include "ember/core/errors.hpp"
+#include "ember/core/text.hpp"
+#include "ember/units/constants.hpp"
+#include "ember/units/quantity.hpp"
+
+namespace ember::population {
+
+namespace {
+
+class Monochromatic final : public MassFunction {
+ public:
+  explicit Monochromatic(double m) : m_(m) {}
+  double psi(double mass) const override { return mass == m_ ? INFINITY : 0.0; }
+  double low() const override { return m_; }
+  double high() const override { return m_; }
+  bool monochromatic() const override { return true; }
+  double characteristic_mass() const override { return m_; }
+  std::string description() const override { return fmt::format("monochromatic at {:.4g} g", m_ / units::gram); }
+
+ private:
+  double m_;
+};
+
+class Lognormal final : public MassFunction {
+ public:
+  Lognormal(double mc, double s) : mc_(mc), s_(s) {}
+  double psi(double m) const override {
+    const double l = std::log(m / mc_);
+    return std::exp(-l * l / (2 * s_ * s_)) / (std::sqrt(2 * units::pi) * s_ * m);
+  }
+  double low() const override { return mc_ * std::exp(-7.5 * s_); }  // 7.5 sigma: 1e-13 of the weight
+  double high() const override { return mc_ * std::exp(7.5 * s_); }
+  double characteristic_mass() const override { return mc_; }
+  std::string description() const override {
+    return fmt::format("lognormal, peak {:.4g} g, width {}", mc_ / units::gram, format_real(s_));
+  }
+
+ private:
+  double mc_, s_;
+};
+
+class PowerLaw final : public MassFunction {
+ public:
+  PowerLaw(double lo, double hi, double p) : lo_(lo), hi_(hi), p_(p) {
+    norm_ = std::abs(p + 1) < 1e-12 ? std::log(hi / lo) : (std::pow(hi, p + 1) - std::pow(lo, p + 1)) / (p + 1);
+  }
+  double psi(double m) const override { return (m < lo_ || m > hi_) ? 0.0 : std::pow(m, p_) / norm_; }
+  double low() const override { return lo_; }
+  double high() const override { return hi_; }
+  double characteristic_mass() const override { return hi_; }
+  std::string description() const override {
+    return fmt::format("power law M^{} from {:.4g} g to {:.4g} g", format_real(p_), lo_ / units::gram,
+                       hi_ / units::gram);
+  }
+
+ private:
+  double lo_, hi_, p_, norm_;
+};
+
+class CriticalCollapse final : public MassFunction {
+ public:
+  CriticalCollapse(double mf, double k) : mf_(mf), k_(k) {
+    norm_ = std::pow(mf, k + 1) * gsl_sf_gamma((k + 1) / k) / k;
+  }
+  double psi(double m) const override { return std::pow(m, k_) * std::exp(-std::pow(m / mf_, k_)) / norm_; }
+  double low() const override { return mf_ * std::pow(1e-13, 1 / (k_ + 1)); }
+  double high() const override { return mf_ * std::pow(30.0, 1 / k_); }  // e^-30 of the peak beyond
+  double characteristic_mass() const override { return mf_; }
+  std::string description() const override {
+    return fmt::format("critical collapse, cut-off {:.4g} g, exponent {}", mf_ / units::gram, format_real(k_));
+  }
+
+ private:
+  double mf_, k_, norm_;
+};
+
+class Tabulated final : public MassFunction {
+ public:
+  Tabulated(std::vector<double> ln_m, std::vector<double> psi, std::string file)
+      : ln_m_(std::move(ln_m)), psi_(std::move(psi)), file_(std::move(file)) {
+    // Normalise: int psi dM = int psi e^u du with psi linear in u = ln M between nodes, exactly:
+    // each segment gives e^{u1} (psi1 - s) - e^{u0} (psi0 - s), s = (psi1 - psi0)/(u1 - u0) (derived).
+    double total = 0;
+    for (std::size_t i = 0; i + 1 < ln_m_.size(); ++i) {
+      const double s = (psi_[i + 1] - psi_[i]) / (ln_m_[i + 1] - ln_m_[i]);
+      total += std::exp(ln_m_[i + 1]) * (psi_[i + 1] - s) - std::exp(ln_m_[i]) * (psi_[i] - s);
+    }
+    if (!(total > 0))
+      throw InputError(fmt::format("{}: psi integrates to {}; expected a positive total", file_, total));
+    for (double& p : psi_) p /= total;
+    spline_.reset(gsl_spline_alloc(gsl_interp_linear, ln_m_.size()), gsl_spline_free);
+    gsl_spline_init(spline_.get(), ln_m_.data(), psi_.data(), ln_m_.size());
+  }
+  double psi(double m) const override {
+    const double u = std::log(m);
+    if (u < ln_m_.front() || u > ln_m_.back()) return 0.0;
+    return gsl_spline_eval(spline_.get(), u, nullptr);
+  }
+  double low() const override { return std::exp(ln_m_.front()); }
+  double high() const override { return std::exp(ln_m_.back()); }
+  double characteristic_mass() const override { return std::sqrt(low() * high()); }
+  std::string description() const override { return "table " + file_; }
+
+ private:
+  std::vector<double> ln_m_, psi_;
+  std::string file_;
+  std::shared_ptr<gsl_spline> spline_;
+};
+
+}  // namespace
+
+std::unique_ptr<MassFunction> monochromatic(double mass) {
+  return std::make_unique<Monochromatic>(mass);
+}
+std::unique_ptr<MassFunction> lognormal(double peak, double width) {
+  return std::make_unique<Lognormal>(peak, width);
+}
+std::unique_ptr<MassFunction> power_law(double lo, double hi, double p) {
+  return std::make_unique<PowerLaw>(lo, hi, p);
+}
+std::unique_ptr<MassFunction> critical_collapse(double mf, double k) {
+  return std::make_unique<CriticalCollapse>(mf, k);
+}
+
+std::unique_ptr<MassFunction> tabulated(const std::string& file, const std::string& unit) {
+  const double factor = units::parse_quantity("1 " + unit, units::mass).value;
+  std::ifstream in(file);
+  if (!in) throw InputError(fmt::format("{}: cannot be read; expected a mass-function table (mass, psi)", file));
+  std::vector<double> ln_m, psi;
+  std::string line;
+  for (int n = 1; std::getline(in, line); ++n) {
+    const std::string t = trim(line);
+    if (t.empty() || t[0] == '#') continue;
+    std::istringstream f(t);
+    std::string a, b, extra;
+    f >> a >> b;
+    const auto m = parse_real(a), p = parse_real(b);
+    if (!m || !p || (f >> extra) || !(*m > 0) || *p < 0)
+      throw InputError(fmt::format("{}:{}: \"{}\"; expected a mass > 0 ({}) and psi >= 0", file, n, t, unit));
+    if (!ln_m.empty() && !(std::log(*m * factor) > ln_m.back()))
+      throw InputError(
+          fmt::format("{}:{}: mass {} not above the previous row; expected increasing masses", file, n, a));
+    ln_m.push_back(std::log(*m * factor));
+    psi.push_back(*p / factor);  // psi per GeV
+  }
+  if (ln_m.size() < 2) throw InputError(fmt::format("{}: {} rows; expected at least 2", file, ln_m.size()));
+  return std::make_unique<Tabulated>(std::move(ln_m), std::move(psi), file);
+}
+
+}  // namespace ember::population

@@ -1,0 +1,294 @@
+#include "ember/report/outputs.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+#include <cstdlib>
+
+#include "ember/core/atomic_file.hpp"
+#include "ember/core/data_files.hpp"
+#include "ember/core/errors.hpp"
+#include "ember/core/hash.hpp"
+#include "ember/core/text.hpp"
+#include "ember/units/constants.hpp"
+#include "ember/version.hpp"
+
+namespace ember::report {
+
+namespace {
+
+namespace u = ember::units;
+using nlohmann::ordered_json;
+
+std::string hash_of(const scenario::LoadedScenario& l) {
+  return fingerprint(YAML::Dump(l.resolved));
+}
+
+ordered_json number_or_null(std::optional<double> v) {
+  return v && std::isfinite(*v) ? ordered_json(*v) : ordered_json(nullptr);
+}
+
+std::string cell(std::optional<double> v) {
+  return v && std::isfinite(*v) ? fmt::format("{:.8e}", *v) : std::string();
+}
+
+std::string csv_header(const scenario::LoadedScenario& l, const std::string& what,
+                       const std::vector<std::string>& notes) {
+  std::string out = fmt::format("# Ember {}: {}\n# scenario {} (hash {}), ember {}\n", what,
+                                l.scenario.title.empty() ? l.source : l.scenario.title, l.source, hash_of(l), version);
+  for (const auto& n : notes) out += "# " + n + "\n";
+  return out;
+}
+
+// Debian's python3 (where python3-matplotlib installs) before whatever python3 is first on PATH.
+std::string python() {
+  return std::filesystem::exists("/usr/bin/python3") ? "/usr/bin/python3" : "python3";
+}
+
+bool wants(const scenario::Scenario& s, const char* file) {
+  return std::find(s.output.files.begin(), s.output.files.end(), file) != s.output.files.end();
+}
+
+// The lowest beta_max of any prescription, and where.
+struct Tightest {
+  std::string prescription;
+  double mass = 0, beta = 0, f = 0;
+  bool found = false;
+};
+Tightest tightest(const scenario::JobResults& r) {
+  Tightest t;
+  for (const auto& o : r.outcomes)
+    for (const auto& row : o.curve)
+      if (row.beta_max && (!t.found || *row.beta_max < t.beta)) {
+        t = {tunnelling::name_of(o.prescription), row.mass, *row.beta_max, row.f_max.value_or(0), true};
+      }
+  return t;
+}
+
+std::string constraint_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+  const bool mono = std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum);
+  std::string out = csv_header(
+      l, "constraint curves",
+      {"units: masses in g; beta_max = largest allowed energy fraction at formation; f_max = largest allowed f_PBH",
+       mono ? "rows: formation mass of a monochromatic population"
+            : "rows: characteristic mass (and width) of the extended spectrum; beta_max quoted at the characteristic "
+              "mass",
+       fmt::format("excluded when the expected decays in our past light cone exceed {}",
+                   format_real(l.scenario.exclusion.max_decays)),
+       fmt::format(
+           "band: beta_max envelope over {} Higgs-input point(s); band_without counts points with no constraint",
+           r.band.size()),
+       "empty cell: no decays there, no constraint"});
+  out += "mass_g,width";
+  for (const auto& o : r.outcomes) out += fmt::format(",beta_max_{0},f_max_{0}", tunnelling::name_of(o.prescription));
+  for (const auto& o : r.outcomes)
+    out += fmt::format(",band_low_{0},band_high_{0},band_without_{0}", tunnelling::name_of(o.prescription));
+  out += "\n";
+  const std::size_t rows = r.outcomes.empty() ? 0 : r.outcomes.front().curve.size();
+  for (std::size_t i = 0; i < rows; ++i) {
+    const auto& first = r.outcomes.front().curve[i];
+    out += fmt::format("{:.8e},{}", first.mass / u::gram, first.width > 0 ? format_real(first.width) : "");
+    for (const auto& o : r.outcomes) out += fmt::format(",{},{}", cell(o.curve[i].beta_max), cell(o.curve[i].f_max));
+    for (const auto& o : r.outcomes)
+      out += fmt::format(",{},{},{}", cell(o.curve[i].band_low), cell(o.curve[i].band_high), o.curve[i].band_without);
+    out += "\n";
+  }
+  return out;
+}
+
+std::string decay_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+  std::string out =
+      csv_header(l, "decay along each mass-loss history",
+                 {"units: masses in g, times in s (since the big bang)",
+                  "P_decay = 1 - exp(-int Gamma_D dt); hazard from the ln M integral, hazard_time from the time "
+                  "integral (a cross-check); crossover = first mass with Gamma_D >= Gamma_H",
+                  "empty cell: none (no crossover, or no decay)"});
+  out += "formation_mass_g,formation_time_s,lifetime_s,evaporated,formed_below_floor";
+  for (const auto& o : r.outcomes)
+    out += fmt::format(",P_decay_{0},hazard_{0},hazard_time_{0},crossover_mass_g_{0},decay_time_s_{0}",
+                       tunnelling::name_of(o.prescription));
+  out += "\n";
+  const std::size_t rows = r.outcomes.empty() ? 0 : r.outcomes.front().scan.size();
+  for (std::size_t i = 0; i < rows; ++i) {
+    const auto& first = r.outcomes.front().scan[i];
+    out += fmt::format("{:.8e},{:.8e},{:.8e},{},{}", first.mass / u::gram, first.formation.time / u::second,
+                       first.decay.lifetime / u::second, first.decay.evaporated ? "true" : "false",
+                       first.decay.formed_below_floor ? "true" : "false");
+    for (const auto& o : r.outcomes) {
+      if (i >= o.scan.size()) {
+        out += ",,,,,";
+        continue;
+      }
+      const auto& d = o.scan[i].decay;
+      out += fmt::format(",{:.8e},{},{},{},{}", d.probability, cell(d.hazard), cell(d.hazard_in_time),
+                         cell(d.crossover_mass ? std::optional<double>(*d.crossover_mass / u::gram) : std::nullopt),
+                         d.probability > 0 ? cell(d.decay_time / u::second) : std::string());
+    }
+    out += "\n";
+  }
+  return out;
+}
+
+std::string rates_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+  std::string out = csv_header(l, "decay against evaporation",
+                               {"units: seed mass in g and Planck masses; ratio = Gamma_D / Gamma_H"});
+  out += "seed_mass_g,seed_mass_Mpl";
+  for (const auto& o : r.outcomes) out += fmt::format(",ratio_{}", tunnelling::name_of(o.prescription));
+  out += "\n";
+  for (std::size_t i = 0; i < r.plot_masses.size(); ++i) {
+    out += fmt::format("{:.8e},{:.8e}", r.plot_masses[i] / u::gram, r.plot_masses[i] / u::planck_mass);
+    for (const auto& o : r.outcomes) out += "," + (i < o.plot_ratio.size() ? cell(o.plot_ratio[i]) : std::string());
+    out += "\n";
+  }
+  return out;
+}
+
+std::string potential_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+  std::string out = csv_header(l, "Higgs potential",
+                               {"units: h in GeV; lambda is the running MS-bar coupling at mu = h, "
+                                "lambda_eff = e^{4 Gamma} lambda the quartic in the potential"});
+  out += "h_GeV,lambda,lambda_eff\n";
+  for (std::size_t i = 0; i < r.plot_field.size(); ++i)
+    out += fmt::format("{:.8e},{:.8e},{:.8e}\n", r.plot_field[i], r.plot_lambda[i], r.plot_lambda_eff[i]);
+  return out;
+}
+
+}  // namespace
+
+std::vector<std::string> cautions(const scenario::Scenario& s) {
+  std::vector<std::string> names;
+  for (const auto p : s.tunnelling.prescriptions) names.push_back(tunnelling::name_of(p));
+  return {
+      fmt::format("These are semiclassical estimates under the named rate prescription(s): {}.",
+                  join_alternatives(names, "and")),
+      "The literature disagrees on the right prescription (the hole's quantum state; whether the enhancement is only a "
+      "Boltzmann factor at the Hawking temperature); compare them side by side.",
+      fmt::format(
+          "Seeds below the semiclassical floor of {:.3g} Planck masses ({:.3g} g) are outside the validity of these "
+          "results and are not counted.",
+          s.tunnelling.semiclassical_floor / u::planck_mass, s.tunnelling.semiclassical_floor / u::gram),
+      "The constraint disappears if new physics stabilises the Higgs potential."};
+}
+
+ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+  ordered_json j;
+  j["ember_version"] = version;
+  j["scenario_file"] = l.source;
+  j["scenario_hash"] = hash_of(l);
+  j["title"] = l.scenario.title;
+  j["scenario"] = scenario::resolved_json(l.resolved);
+  j["cautions"] = cautions(l.scenario);
+  j["potential"] = r.potential;
+  j["spectrum"] = r.spectrum;
+  if (r.stability) {
+    const auto& st = *r.stability;
+    j["higgs"] = {{"verdict", higgs::name_of(st.verdict)},
+                  {"instability_scale_GeV", number_or_null(st.instability_scale)},
+                  {"lambda_min", st.lambda_min},
+                  {"lambda_min_scale_GeV", st.lambda_min_scale}};
+    j["unseeded_baseline"] = {
+        {"log10_decay_probability", number_or_null(st.log10_decay_probability)},
+        {"note", "flat-space decay of our past light cone with no black holes: " + st.prescription}};
+  }
+  j["no_constraint"] = r.no_constraint;
+  if (r.no_constraint) j["no_constraint_reason"] = r.no_constraint_reason;
+  ordered_json ps = ordered_json::object();
+  for (const auto& o : r.outcomes) {
+    const double evaporated_share = o.counts.lightcone > 0 ? o.counts.from_evaporated / o.counts.lightcone : 0.0;
+    ps[tunnelling::name_of(o.prescription)] = {{"N_lightcone", o.counts.lightcone},
+                                               {"N_hubble", o.counts.hubble},
+                                               {"survival_probability", o.survival},
+                                               {"excluded", o.excluded},
+                                               {"abundance", {{"beta", o.counts.beta}, {"f_pbh", o.counts.f_pbh}}},
+                                               {"share_from_evaporated_holes", evaporated_share},
+                                               {"assumptions", tunnelling::assumptions(o.prescription)},
+                                               {"table", o.table_summary}};
+  }
+  j["prescriptions"] = ps;
+  const Tightest t = tightest(r);
+  j["most_constraining"] = t.found ? ordered_json{{"prescription", t.prescription},
+                                                  {"mass_g", t.mass / u::gram},
+                                                  {"beta_max", t.beta},
+                                                  {"f_max", t.f}}
+                                   : ordered_json(nullptr);
+  ordered_json band = ordered_json::array();
+  for (const auto& b : r.band)
+    band.push_back({{"label", b.point.label},
+                    {"top_mass_GeV", b.point.inputs.top_mass},
+                    {"higgs_mass_GeV", b.point.inputs.higgs_mass},
+                    {"alpha_s", b.point.inputs.alpha_s},
+                    {"lambda6", b.point.lambda6},
+                    {"lambda8", b.point.lambda8},
+                    {"verdict", higgs::name_of(b.verdict)},
+                    {"constraint", b.constraint},
+                    {"log10_unseeded_decay_probability", number_or_null(b.log10_unseeded)}});
+  j["band"] = band;
+  j["survivors"] = {{"mass_g", r.survivors_mass / u::gram},
+                    {"note",
+                     "holes formed heavier than this survive today; their constraint comes only from the "
+                     "evaporated low-mass tail of an extended spectrum"}};
+  j["timing"] = {{"seconds", r.seconds}};
+  return j;
+}
+
+std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+  std::string t = fmt::format("Ember run: {}\n  scenario {} (hash {})\n  population: {}\n  potential: {}\n",
+                              l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, hash_of(l),
+                              r.spectrum, r.potential);
+  if (r.stability)
+    t += fmt::format("  Higgs vacuum: {}{}; unseeded decay of the past light cone: log10 p = {}\n",
+                     higgs::name_of(r.stability->verdict),
+                     r.stability->instability_scale
+                         ? fmt::format(", instability at {:.3g} GeV", *r.stability->instability_scale)
+                         : "",
+                     r.stability->log10_decay_probability ? fmt::format("{:.1f}", *r.stability->log10_decay_probability)
+                                                          : std::string("none"));
+  if (r.no_constraint) t += fmt::format("  no constraint: {}\n", r.no_constraint_reason);
+  t += fmt::format("  {:<14} {:>14} {:>16}  {}\n", "prescription", "N_lightcone", "survival e^-N", "verdict");
+  for (const auto& o : r.outcomes)
+    t += fmt::format("  {:<14} {:>14.4e} {:>16.4e}  {}\n", tunnelling::name_of(o.prescription), o.counts.lightcone,
+                     o.survival, o.excluded ? "EXCLUDED" : "allowed");
+  const Tightest best = tightest(r);
+  if (best.found)
+    t += fmt::format("  most constraining: {} at {:.4g} g: beta_max = {:.4e} (f_max = {:.4e})\n", best.prescription,
+                     best.mass / u::gram, best.beta, best.f);
+  else
+    t += "  most constraining: none (no decays anywhere on the scan)\n";
+  for (const auto& c : cautions(l.scenario)) t += "  caution: " + c + "\n";
+  return t;
+}
+
+Written write_outputs(const scenario::LoadedScenario& l, const scenario::JobResults& r,
+                      const std::filesystem::path& dir, bool plots) {
+  Written w;
+  const scenario::Scenario& s = l.scenario;
+  const auto put = [&](const char* name, const std::string& text) {
+    write_file_atomically(dir / name, text);
+    w.files.emplace_back(name);
+  };
+  if (wants(s, "summary")) put("summary.json", summary_json(l, r).dump(2) + "\n");
+  if (wants(s, "constraint")) put("constraint.csv", constraint_csv(l, r));
+  if (wants(s, "decay")) put("decay.csv", decay_csv(l, r));
+  if (wants(s, "resolved")) put("resolved.yaml", scenario::resolved_yaml(l));
+  if (wants(s, "plots")) {
+    put("rates.csv", rates_csv(l, r));
+    if (!r.plot_field.empty()) put("potential.csv", potential_csv(l, r));
+    const std::filesystem::path script = data_directory() / ".." / "scripts" / "plot";
+    if (!plots) {
+      w.plots_note = "plots skipped (--no-plots)";
+    } else if (std::system(fmt::format("{} -c 'import matplotlib' >/dev/null 2>&1", python()).c_str()) != 0) {
+      w.plots_note = "plots skipped: python3 with matplotlib is not installed (Debian: python3-matplotlib)";
+    } else {
+      std::string formats;
+      for (const auto& f : s.output.plot_formats) formats += (formats.empty() ? "" : ",") + f;
+      const std::string command = fmt::format("{} '{}' '{}' --formats {} >/dev/null 2>&1", python(),
+                                              script.lexically_normal().string(), dir.string(), formats);
+      w.plots_note = std::system(command.c_str()) == 0 ? "plots written by scripts/plot"
+                                                       : "plots failed: scripts/plot returned an error";
+    }
+  }
+  return w;
+}
+
+}  // namespace ember::report

@@ -1,0 +1,293 @@
+#include "ember/scenario/job.hpp"
+
+#include <fmt/format.h>
+
+#include <chrono>
+#include <cmath>
+
+#include "ember/core/errors.hpp"
+#include "ember/greybody/table.hpp"
+#include "ember/tunnelling/landscape.hpp"
+
+namespace ember::scenario {
+
+namespace {
+
+using population::MassFunction;
+using tunnelling::Prescription;
+
+cosmology::Parameters parameters_of(const CosmologyInputs& c) {
+  cosmology::Parameters p;
+  p.hubble = c.hubble;
+  p.omega_b_h2 = c.omega_b_h2;
+  p.omega_cdm_h2 = c.omega_cdm_h2;
+  p.cmb_temperature = c.cmb_temperature;
+  p.n_eff = c.n_eff;
+  return p;
+}
+
+// The spectrum, optionally moved to another characteristic mass and width (for the scans).
+std::unique_ptr<MassFunction> spectrum_at(const Spectrum& s, std::optional<double> mass, std::optional<double> width) {
+  if (const auto* m = std::get_if<Monochromatic>(&s)) return population::monochromatic(mass.value_or(m->mass));
+  if (const auto* l = std::get_if<Lognormal>(&s))
+    return population::lognormal(mass.value_or(l->peak_mass), width.value_or(l->width));
+  if (const auto* p = std::get_if<PowerLaw>(&s)) {
+    const double top = mass.value_or(p->max_mass);
+    return population::power_law(p->min_mass * top / p->max_mass, top, p->exponent);
+  }
+  if (const auto* c = std::get_if<CriticalCollapse>(&s))
+    return population::critical_collapse(mass.value_or(c->cutoff_mass), c->exponent);
+  const auto& t = std::get<TabulatedSpectrum>(s);
+  return population::tabulated(t.file.string(), t.mass_unit);
+}
+
+population::AbundanceMeasure measure_of(AbundanceMeasure m) {
+  switch (m) {
+    case AbundanceMeasure::beta: return population::AbundanceMeasure::beta;
+    case AbundanceMeasure::f_pbh: return population::AbundanceMeasure::f_pbh;
+    case AbundanceMeasure::lightcone_count: return population::AbundanceMeasure::lightcone_count;
+  }
+  return population::AbundanceMeasure::beta;
+}
+
+std::vector<HiggsPoint> higgs_points(const StandardModelInputs& sm, const ScanChoices& scan) {
+  const auto* form = std::get_if<StandardModelForm>(&sm.potential);
+  HiggsPoint central{sm.inputs, form ? form->options.lambda6 : 0.0, form ? form->options.lambda8 : 0.0, true,
+                     "central"};
+  std::vector<HiggsPoint> out{central};
+  if (!form) return out;
+  const auto axis = [](const BandAxis& a, double centre) {
+    std::vector<double> v;
+    for (int i = 0; i < a.points; ++i)
+      v.push_back(a.points == 1 ? centre : centre + a.sigma * a.span * (2.0 * i / (a.points - 1) - 1));
+    return v;
+  };
+  std::vector<double> l6{central.lambda6}, l8{central.lambda8};
+  l6.insert(l6.end(), scan.band.lambda6.begin(), scan.band.lambda6.end());
+  l8.insert(l8.end(), scan.band.lambda8.begin(), scan.band.lambda8.end());
+  for (const double mt : axis(scan.band.top_mass, sm.inputs.top_mass))
+    for (const double mh : axis(scan.band.higgs_mass, sm.inputs.higgs_mass))
+      for (const double as : axis(scan.band.alpha_s, sm.inputs.alpha_s))
+        for (const double a6 : l6)
+          for (const double a8 : l8) {
+            HiggsPoint p{sm.inputs, a6, a8, false, ""};
+            p.inputs.top_mass = mt;
+            p.inputs.higgs_mass = mh;
+            p.inputs.alpha_s = as;
+            if (mt == central.inputs.top_mass && mh == central.inputs.higgs_mass && as == central.inputs.alpha_s &&
+                a6 == central.lambda6 && a8 == central.lambda8)
+              continue;
+            p.label = fmt::format("M_t {} M_h {} alpha_s {} lambda6 {} lambda8 {}", mt, mh, as, a6, a8);
+            out.push_back(p);
+          }
+  return out;
+}
+
+struct PointModel {
+  std::shared_ptr<const higgs::Running> running;
+  std::unique_ptr<higgs::Potential> potential;
+  const higgs::StandardModelPotential* sm = nullptr;
+  std::optional<higgs::StabilityReport> stability;
+  std::optional<std::string> no_decay;  // why there is no constraint at this point
+};
+
+PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
+  PointModel m;
+  if (const auto* form = std::get_if<StandardModelForm>(&sm.potential)) {
+    m.running = std::make_shared<const higgs::Running>(hp.inputs);
+    auto pot = std::make_unique<higgs::StandardModelPotential>(
+        m.running, higgs::StandardModelOptions{form->options.coleman_weinberg, hp.lambda6, hp.lambda8});
+    m.sm = pot.get();
+    m.stability = higgs::analyse_stability(*pot);
+    if (m.stability->verdict == higgs::Verdict::stable)
+      m.no_decay = "the potential is stable for these inputs: no constraint";
+    m.potential = std::move(pot);
+    return m;
+  }
+  if (const auto* poly = std::get_if<PolynomialPotential>(&sm.potential))
+    m.potential = std::make_unique<higgs::PolynomialPotential>(poly->scale, poly->coefficients);
+  else
+    m.potential = std::make_unique<higgs::TabulatedPotential>(std::get<TabulatedPotential>(sm.potential).file);
+  try {
+    tunnelling::analyse_landscape(*m.potential, m.potential->field_max() * 1e-40);
+  } catch (const InputError&) {
+    m.no_decay = "the potential has no barrier into a lower region: no constraint";
+  }
+  return m;
+}
+
+void check_applicable(const Scenario& s) {
+  const bool sm = std::holds_alternative<StandardModelForm>(s.standard_model.potential);
+  for (const Prescription p : s.tunnelling.prescriptions) {
+    if (p == Prescription::hot_bubble && !sm)
+      throw InputError(
+          "tunnelling.prescriptions: hot_bubble needs the Standard Model potential (its thermal mass); expected "
+          "standard_model.potential.form: standard_model, or drop hot_bubble");
+    if (p == Prescription::thin_wall && !(s.tunnelling.wall_tension && s.tunnelling.energy_gap))
+      throw InputError(
+          "tunnelling.prescriptions: thin_wall needs tunnelling.thin_wall.tension and energy_gap; expected both");
+  }
+}
+
+}  // namespace
+
+JobResults run_job(const Scenario& s, const JobOptions& o) {
+  const auto start = std::chrono::steady_clock::now();
+  check_applicable(s);
+  JobResults out;
+  const cosmology::Background background(parameters_of(s.cosmology), cosmology::DegreesOfFreedom::load_default());
+  const evaporation::MassLoss mass_loss(greybody::load_default_table(), evaporation::load_default_particles(),
+                                        s.evaporation.mass_loss);
+  out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);
+  const auto base = spectrum_at(s.population.spectrum, std::nullopt, std::nullopt);
+  out.spectrum = base->description();
+
+  // The scan: formation or characteristic masses, and widths for a lognormal spectrum.
+  std::vector<std::pair<double, std::optional<double>>> rows;
+  const bool table_spectrum = std::holds_alternative<TabulatedSpectrum>(s.population.spectrum);
+  const std::vector<double> widths =
+      std::holds_alternative<Lognormal>(s.population.spectrum) ? s.scan.widths : std::vector<double>{};
+  for (int i = 0; i < (table_spectrum ? 1 : s.scan.masses.points); ++i) {
+    const double m = table_spectrum ? base->characteristic_mass()
+                     : s.scan.masses.points == 1
+                         ? s.scan.masses.from
+                         : s.scan.masses.from * std::pow(s.scan.masses.to / s.scan.masses.from,
+                                                         static_cast<double>(i) / (s.scan.masses.points - 1));
+    if (widths.empty()) rows.emplace_back(m, std::nullopt);
+    for (const double w : widths) rows.emplace_back(m, w);
+  }
+  // Formation masses the extended spectra need, across every row.
+  double lo = base->low(), hi = base->high();
+  std::vector<std::unique_ptr<MassFunction>> row_spectra;
+  for (const auto& [m, w] : rows) {
+    row_spectra.push_back(table_spectrum ? spectrum_at(s.population.spectrum, std::nullopt, std::nullopt)
+                                         : spectrum_at(s.population.spectrum, m, w));
+    lo = std::min(lo, row_spectra.back()->low());
+    hi = std::max(hi, row_spectra.back()->high());
+  }
+
+  population::ResponseContext context;
+  context.background = &background;
+  context.mass_loss = &mass_loss;
+  context.trajectory = s.evaporation.trajectory;
+  context.decay.prefactor = s.tunnelling.prefactor;
+  context.decay.grid_points = o.decay_grid_points;
+  context.collapse_fraction = s.population.collapse_fraction;
+
+  tunnelling::ActionTableOptions table_options;
+  table_options.points = o.table_points;
+  table_options.midpoint_stride = o.table_check_stride;
+
+  const std::vector<HiggsPoint> points = higgs_points(s.standard_model, s.scan);
+  for (const Prescription p : s.tunnelling.prescriptions)
+    out.outcomes.push_back({p, {}, 1.0, false, {}, {}, "", {}, {}});
+  // beta_max per prescription, row and Higgs point, for the envelope.
+  std::vector<std::vector<std::vector<std::optional<double>>>> band_values(
+      out.outcomes.size(), std::vector<std::vector<std::optional<double>>>(rows.size()));
+
+  for (const HiggsPoint& hp : points) {
+    const PointModel model = model_for(hp, s.standard_model);
+    BandPoint bp{hp, model.stability ? model.stability->verdict : higgs::Verdict::metastable, false,
+                 model.stability ? model.stability->log10_decay_probability : std::nullopt};
+    if (hp.central) {
+      out.potential = model.potential->description();
+      out.stability = model.stability;
+      if (model.no_decay) {
+        out.no_constraint = true;
+        out.no_constraint_reason = *model.no_decay;
+      }
+      if (model.sm) {
+        const double t0 = std::log(model.running->mu_min()), t1 = std::log(model.running->mu_max());
+        for (int i = 0; i <= 300; ++i) {
+          const double h = std::exp(t0 + (t1 - t0) * i / 300);
+          out.plot_field.push_back(h);
+          out.plot_lambda.push_back(model.running->lambda(h));
+          out.plot_lambda_eff.push_back(model.sm->lambda_eff(h));
+        }
+      }
+    }
+    tunnelling::TunnellingSetup setup;
+    setup.potential = model.potential.get();
+    setup.standard_model = model.sm;
+    if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
+      setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
+    setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
+    setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
+
+    for (std::size_t k = 0; k < out.outcomes.size(); ++k) {
+      PrescriptionOutcome& outcome = out.outcomes[k];
+      const Prescription p = outcome.prescription;
+      if (model.no_decay && p != Prescription::thin_wall) {
+        for (auto& v : band_values[k]) v.emplace_back(std::nullopt);
+        if (hp.central)
+          for (std::size_t r = 0; r < rows.size(); ++r)
+            outcome.curve.push_back({rows[r].first, rows[r].second.value_or(0), {}, {}, {}, {}, 0});
+        continue;
+      }
+      const tunnelling::ActionTable table(p, setup, table_options);
+      std::vector<population::Response> grid;
+      if (!base->monochromatic()) grid = population::response_grid(lo, hi, o.responses_per_decade, table, context);
+      for (std::size_t r = 0; r < rows.size(); ++r) {
+        std::optional<double> beta_max, f_max;
+        if (base->monochromatic()) {
+          const population::Response resp = population::response_at(rows[r].first, table, context);
+          if (resp.lightcone_per_beta > 0) {
+            beta_max = s.exclusion.max_decays / resp.lightcone_per_beta;
+            f_max = *beta_max * resp.f_per_beta;
+          }
+          if (hp.central) outcome.scan.push_back(resp);
+        } else {
+          const double per_f = population::lightcone_per_amplitude(*row_spectra[r], grid);
+          if (per_f > 0) {
+            f_max = s.exclusion.max_decays / per_f;
+            beta_max = *f_max / population::f_pbh_per_beta(
+                                    population::formation_of(rows[r].first, s.population.collapse_fraction, background),
+                                    background);
+          }
+        }
+        band_values[k][r].push_back(beta_max);
+        if (beta_max) bp.constraint = true;
+        if (hp.central)
+          outcome.curve.push_back({rows[r].first, rows[r].second.value_or(0), beta_max, f_max, {}, {}, 0});
+      }
+      if (!hp.central) continue;
+      // The scenario's own abundance.
+      std::vector<population::Response> own =
+          base->monochromatic()
+              ? std::vector<population::Response>{population::response_at(base->characteristic_mass(), table, context)}
+              : grid;
+      outcome.counts =
+          population::counts_for(*base, measure_of(s.population.abundance.measure), s.population.abundance.value, own);
+      if (!base->monochromatic()) outcome.scan = grid;
+      outcome.survival = std::exp(-outcome.counts.lightcone);
+      outcome.excluded = outcome.counts.lightcone > s.exclusion.max_decays;
+      outcome.table_summary = table.summary().message;
+      // Gamma_D / Gamma_H for the plot.
+      if (out.plot_masses.empty())
+        for (int i = 0; i < o.plot_points; ++i)
+          out.plot_masses.push_back(table.floor() * std::pow(1e10, static_cast<double>(i) / (o.plot_points - 1)));
+      for (const double m : out.plot_masses) {
+        const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), mass_loss, s.tunnelling.prefactor);
+        outcome.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
+      }
+    }
+    out.band.push_back(bp);
+  }
+  // The band envelope over all Higgs points, per prescription and row.
+  for (std::size_t k = 0; k < out.outcomes.size(); ++k)
+    for (std::size_t r = 0; r < rows.size() && r < out.outcomes[k].curve.size(); ++r) {
+      CurveRow& row = out.outcomes[k].curve[r];
+      for (const auto& v : band_values[k][r]) {
+        if (!v) {
+          ++row.band_without;
+          continue;
+        }
+        row.band_low = row.band_low ? std::min(*row.band_low, *v) : *v;
+        row.band_high = row.band_high ? std::max(*row.band_high, *v) : *v;
+      }
+    }
+  out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+  return out;
+}
+
+}  // namespace ember::scenario

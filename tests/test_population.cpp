@@ -1,0 +1,193 @@
+// Cosmology, formation, decay along trajectories, counts and constraint curves.
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+#include "ember/population/counts.hpp"
+#include "ember/scenario/job.hpp"
+#include "ember/scenario/load.hpp"
+#include "ember/units/constants.hpp"
+#include "support.hpp"
+
+using namespace ember;
+namespace u = ember::units;
+using ember::testing::close;
+using ember::testing::source_dir;
+
+namespace {
+const cosmology::Background& background() {
+  static const cosmology::Background b(cosmology::planck2018(),
+                                       cosmology::DegreesOfFreedom::load(source_dir / "data/relativistic_dof.tsv"));
+  return b;
+}
+const evaporation::MassLoss& mass_loss() {
+  static const evaporation::MassLoss ml(greybody::load_table(source_dir / "data/greybody.tsv"),
+                                        evaporation::load_particles(source_dir / "data/particles.yaml"));
+  return ml;
+}
+const higgs::StandardModelPotential& standard_model() {
+  static const higgs::StandardModelPotential sm(std::make_shared<const higgs::Running>(higgs::default_inputs()));
+  return sm;
+}
+const tunnelling::ActionTable& probe_table() {
+  static const tunnelling::ActionTable t = [] {
+    tunnelling::TunnellingSetup s;
+    s.potential = &standard_model();
+    s.standard_model = &standard_model();
+    tunnelling::ActionTableOptions o;
+    o.points = 30;
+    o.midpoint_stride = 6;
+    return tunnelling::ActionTable(tunnelling::Prescription::probe_field, s, o);
+  }();
+  return t;
+}
+population::ResponseContext context() {
+  population::ResponseContext c;
+  c.background = &background();
+  c.mass_loss = &mass_loss();
+  c.decay.grid_points = 500;
+  return c;
+}
+double gram(double g) {
+  return g * u::gram;
+}
+}  // namespace
+
+TEST_CASE("the Planck 2018 background") {
+  const auto& b = background();
+  // Age 13.79 Gyr (Planck 2018 VI, A&A 641 (2020) A6, Table 2: 13.787 +- 0.020 Gyr); we leave out
+  // the neutrino masses Planck include, so 0.03 Gyr.
+  CHECK(std::abs(b.age() / (1e9 * u::year) - 13.79) < 0.03);
+  // Comoving particle horizon today about 14.2 Gpc, 46 billion light years (common practice).
+  CHECK(std::abs(b.particle_horizon() / (1e9 * u::parsec) - 14.2) < 0.1);
+  CHECK(std::abs(b.particle_horizon() / (1e9 * u::year) - 46.0) < 0.5);
+  // Radiation era: M_H = c^3 t / G (derived from H = 1/(2t)) and M = gamma M_H ~ 1e15 g (t / 1e-23 s)
+  // (Carr 1975; Green, arXiv:1403.1198, eq. 1; a one-figure estimate, so 25%).
+  const double t = 1e-23 * u::second;
+  CHECK(close(b.horizon_mass(t), t / u::newton_G, 1e-3));
+  CHECK(close(0.2 * b.horizon_mass(t), gram(1e15), 0.25));
+}
+
+TEST_CASE("formation and abundance conversions") {
+  const auto& b = background();
+  for (double m : {1e5, 1e10, 1e15}) {
+    const population::Formation f = population::formation_of(gram(m), 0.2, b);
+    CAPTURE(m);
+    // The number of holes per horizon volume at formation is beta/gamma (derived).
+    CHECK(close(population::per_horizon_per_beta(f, b), 1 / 0.2, 1e-6));
+    // Carr, Kohri, Sendouda & Yokoyama, Rep. Prog. Phys. 84 (2021) 116902, eq. 6 (as quoted in a
+    // secondary copy of the paper; not checked against the journal text):
+    //   beta = 7.06e-18 gamma^-1/2 (h/0.67)^2 (g*/106.75)^1/4 Omega_PBH (M/1e15 g)^1/2.
+    // Differences: their g* and cosmology against ours (Saikawa-Shirai g*, Planck 2018): 2%.
+    const double g = b.dof().g_rho(f.temperature);
+    const double omega_per_beta = population::f_pbh_per_beta(f, b) * b.omega_cdm();
+    const double carr =
+        1 / (7.06e-18 / std::sqrt(0.2) * std::pow(0.6766 / 0.67, 2) * std::pow(g / 106.75, 0.25) * std::sqrt(m / 1e15));
+    CHECK(close(omega_per_beta, carr, 0.02));
+    // Their eq. 5: beta = 7.99e-29 gamma^-1/2 (g*/106.75)^1/4 (M/Msun)^3/2 (n_PBH(t0) / Gpc^-3).
+    const double n = population::comoving_number_per_beta(f) * std::pow(1e9 * u::parsec, 3);
+    const double carr5 =
+        1 / (7.99e-29 / std::sqrt(0.2) * std::pow(g / 106.75, 0.25) * std::pow(gram(m) / u::solar_mass, 1.5));
+    CHECK(close(n, carr5, 0.02));
+  }
+}
+
+TEST_CASE("mass functions integrate to one") {
+  const auto integral = [](const population::MassFunction& s) {
+    const int n = 20000;
+    const double lo = std::log(s.low()), hi = std::log(s.high());
+    double total = 0;
+    for (int i = 0; i <= n; ++i) {
+      const double m = std::exp(lo + (hi - lo) * i / n);
+      total += (i == 0 || i == n ? 0.5 : 1.0) * m * s.psi(m) * (hi - lo) / n;
+    }
+    return total;
+  };
+  CHECK(close(integral(*population::lognormal(gram(1e12), 0.8)), 1.0, 1e-6));
+  CHECK(close(integral(*population::power_law(gram(1e9), gram(1e15), -1.5)), 1.0, 1e-6));
+  CHECK(close(integral(*population::critical_collapse(gram(1e12), 2.85)), 1.0, 1e-5));
+  CHECK(close(integral(*population::tabulated((source_dir / "tests/data/good/table_spectrum.tsv").string(), "g")), 1.0,
+              1e-3));
+}
+
+TEST_CASE("decay along trajectories: the two hazard integrals agree, and P ~ 1 gives beta_max ~ M^(3/2)") {
+  const auto c = context();
+  std::vector<double> masses{1.0, 1e3, 1e6, 1e9}, beta_max;
+  for (double m : masses) {
+    const population::Response r = population::response_at(gram(m), probe_table(), c);
+    CAPTURE(m);
+    REQUIRE(r.decay.evaporated);
+    CHECK(r.decay.probability == doctest::Approx(1.0));
+    // int Gamma_D dt against int (Gamma_D/Gamma_H) d ln M (issue 7's cross-check).
+    CHECK(close(r.decay.hazard_in_time, r.decay.hazard, 1e-5));
+    // A hole that surely decays does so once decay outruns evaporation: after the crossover, before
+    // the end (derived). Far above the crossover mass that is the end of its life.
+    REQUIRE(r.decay.crossover_mass);
+    const evaporation::Trajectory tr(mass_loss(), gram(m));
+    CHECK(r.decay.decay_time >= r.formation.time + tr.age_at(*r.decay.crossover_mass) * (1 - 1e-9));
+    CHECK(r.decay.decay_time <= (r.formation.time + r.decay.lifetime) * (1 + 1e-9));
+    if (m >= 1e6) CHECK(close(r.decay.decay_time, r.formation.time + r.decay.lifetime, 1e-6));
+    beta_max.push_back(1 / r.lightcone_per_beta);
+  }
+  // "Not a single evaporated PBH in our past light cone": beta_max ~ M^(3/2) (derived: n a^3/beta ~
+  // T_f / M ~ M^(-3/2), with chi(t_decay) the particle horizon).
+  const double slope = std::log(beta_max.back() / beta_max.front()) / std::log(masses.back() / masses.front());
+  CHECK(slope == doctest::Approx(1.5).epsilon(0.01));
+  // A hole that survives today has not decayed.
+  const population::Response heavy = population::response_at(gram(1e17), probe_table(), c);
+  CHECK_FALSE(heavy.decay.evaporated);
+  CHECK(heavy.decay.probability == 0.0);
+}
+
+TEST_CASE("counts are linear in the abundance and converge as the mass grid is refined") {
+  const auto c = context();
+  const auto spectrum = population::lognormal(gram(1e9), 0.7);
+  const auto coarse = population::response_grid(spectrum->low(), spectrum->high(), 10, probe_table(), c);
+  const auto fine = population::response_grid(spectrum->low(), spectrum->high(), 20, probe_table(), c);
+  const auto a = population::counts_for(*spectrum, population::AbundanceMeasure::f_pbh, 1e-60, coarse);
+  const auto b = population::counts_for(*spectrum, population::AbundanceMeasure::f_pbh, 1e-59, coarse);
+  CHECK(close(b.lightcone, 10 * a.lightcone, 1e-12));
+  const auto f = population::counts_for(*spectrum, population::AbundanceMeasure::f_pbh, 1e-60, fine);
+  CHECK(close(f.lightcone, a.lightcone, 2e-3));
+  // Monochromatic: beta, f_PBH and the light-cone count are one abundance three ways.
+  const auto mono = population::monochromatic(gram(1e10));
+  const std::vector<population::Response> one{population::response_at(gram(1e10), probe_table(), c)};
+  const auto by_beta = population::counts_for(*mono, population::AbundanceMeasure::beta, 1e-70, one);
+  const auto by_f = population::counts_for(*mono, population::AbundanceMeasure::f_pbh, by_beta.f_pbh, one);
+  CHECK(close(by_f.lightcone, by_beta.lightcone, 1e-12));
+  CHECK(close(population::counts_for(*mono, population::AbundanceMeasure::beta, 2e-70, one).lightcone,
+              2 * by_beta.lightcone, 1e-12));
+}
+
+TEST_CASE("a stable potential gives no constraint, and says so") {
+  // M_t = 168 GeV is below the critical top mass (test_higgs.cpp): the vacuum is stable.
+  const auto loaded = scenario::load_scenario_text(
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-20}\n"
+      "standard_model: {top_mass: 168 GeV}\ntunnelling: {prescriptions: [probe_field, hot_bubble]}\n"
+      "scan: {masses: {from: 1 g, to: 1e12 g, points: 4}}\n",
+      "stable.yaml", ".");
+  const scenario::JobResults r = scenario::run_job(loaded.scenario);
+  CHECK(r.no_constraint);
+  CHECK(r.no_constraint_reason.find("no constraint") != std::string::npos);
+  for (const auto& o : r.outcomes) {
+    CHECK(o.counts.lightcone == 0.0);
+    CHECK_FALSE(o.excluded);
+    for (const auto& row : o.curve) CHECK_FALSE(row.beta_max);
+  }
+}
+
+TEST_CASE("the job runs end to end on the demo with a reduced grid") {
+  auto loaded = scenario::load_scenario_file(source_dir / "configs/demo.yaml");
+  loaded.scenario.scan.masses.points = 4;
+  const scenario::JobResults r = scenario::run_job(loaded.scenario);
+  REQUIRE(r.outcomes.size() == 4);
+  for (const auto& o : r.outcomes) {
+    CAPTURE(tunnelling::name_of(o.prescription));
+    CHECK(std::isfinite(o.counts.lightcone));
+    CHECK(o.curve.size() == 4);
+    CHECK(o.survival >= 0);
+    CHECK(o.survival <= 1);
+  }
+  CHECK(r.stability);
+  CHECK(r.stability->verdict == higgs::Verdict::metastable);
+}
