@@ -16,16 +16,6 @@ namespace {
 using population::MassFunction;
 using tunnelling::Prescription;
 
-cosmology::Parameters parameters_of(const CosmologyInputs& c) {
-  cosmology::Parameters p;
-  p.hubble = c.hubble;
-  p.omega_b_h2 = c.omega_b_h2;
-  p.omega_cdm_h2 = c.omega_cdm_h2;
-  p.cmb_temperature = c.cmb_temperature;
-  p.n_eff = c.n_eff;
-  return p;
-}
-
 // The spectrum, optionally moved to another characteristic mass and width (for the scans).
 std::unique_ptr<MassFunction> spectrum_at(const Spectrum& s, std::optional<double> mass, std::optional<double> width) {
   if (const auto* m = std::get_if<Monochromatic>(&s)) return population::monochromatic(mass.value_or(m->mass));
@@ -135,7 +125,8 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   const auto start = std::chrono::steady_clock::now();
   check_applicable(s);
   JobResults out;
-  const cosmology::Background background(parameters_of(s.cosmology), cosmology::DegreesOfFreedom::load_default());
+  const cosmology::Background background(s.cosmology, s.dof_table ? cosmology::DegreesOfFreedom::load(*s.dof_table)
+                                                                  : cosmology::DegreesOfFreedom::load_default());
   const evaporation::MassLoss mass_loss(greybody::load_default_table(), evaporation::load_default_particles(),
                                         s.evaporation.mass_loss);
   out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);

@@ -3,9 +3,7 @@
 //
 // Default values and their sources:
 //   Standard Model inputs and their band sigmas: data/standard_model.yaml (PDG 2024), compiled in.
-//   Cosmology: Planck 2018 VI, A&A 641 (2020) A6, Table 2, TT,TE,EE+lowE+lensing+BAO column
-//     (h = 0.6766, Omega_b h^2 = 0.02242, Omega_c h^2 = 0.11933); T_CMB = 2.7255 K (Fixsen,
-//     ApJ 707 (2009) 916); N_eff = 3.046 (standard-model value used by Planck 2018).
+//   Cosmology: data/cosmology.yaml (Planck 2018 VI, Fixsen 2009), compiled in.
 //   Collapse fraction gamma = 0.2: Carr, ApJ 201 (1975) 1.
 //   Critical-collapse exponent 2.85 in psi ~ M^2.85 exp(-(M/Mf)^2.85): the form used by Carr,
 //     Kuhnel & Sandstad, PRD 94 (2016) 063530, after Niemeyer & Jedamzik, PRL 80 (1998) 5481
@@ -13,11 +11,14 @@
 //   Semiclassical floor 1e3 Planck masses: common practice.
 //   QCD scale 0.3 GeV: MacGibbon & Webber, PRD 41 (1990) 3052, take Lambda_QCD ~ 250-300 MeV for
 //     the onset of quark and gluon emission (from memory).
+#include <cmath>
 #include <utility>
 
 #include "ember/core/text.hpp"
+#include "ember/cosmology/background.hpp"
 #include "ember/higgs/inputs.hpp"
 #include "ember/scenario/schema.hpp"
+#include "ember/units/constants.hpp"
 
 namespace ember::scenario {
 
@@ -149,13 +150,15 @@ Key tunnelling() {
 }
 
 Key cosmology() {
+  const cosmology::Parameters p = cosmology::planck2018();
+  const std::string kelvin = format_real(std::round(p.cmb_temperature / units::kelvin * 1e6) / 1e6) + " K";
   return section(
       "cosmology", "flat Lambda-CDM with radiation",
-      {number("hubble", "h = H0 / (100 km/s/Mpc)", "0.6766", between(0.3, 1.2)),
-       number("omega_b_h2", "baryon density Omega_b h^2", "0.02242", between(0, 0.1)),
-       number("omega_cdm_h2", "cold dark matter density Omega_c h^2", "0.11933", between(0.001, 0.5)),
-       quantity("cmb_temperature", "CMB temperature today", units::temperature, "K", "2.7255 K", between(1, 5)),
-       number("n_eff", "effective number of neutrino species", "3.046", between(0, 10))});
+      {number("hubble", "h = H0 / (100 km/s/Mpc)", format_real(p.hubble), between(0.3, 1.2)),
+       number("omega_b_h2", "baryon density Omega_b h^2", format_real(p.omega_b_h2), between(0, 0.1)),
+       number("omega_cdm_h2", "cold dark matter density Omega_c h^2", format_real(p.omega_cdm_h2), between(0.001, 0.5)),
+       quantity("cmb_temperature", "CMB temperature today", units::temperature, "K", kelvin, between(1, 5)),
+       number("n_eff", "effective number of neutrino species", format_real(p.n_eff), between(0, 10))});
 }
 
 Key band_axis(std::string name, std::string meaning, Key sigma) {

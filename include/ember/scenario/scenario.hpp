@@ -10,6 +10,7 @@
 #include <variant>
 #include <vector>
 
+#include "ember/cosmology/background.hpp"
 #include "ember/evaporation/trajectory.hpp"
 #include "ember/higgs/potential.hpp"
 #include "ember/tunnelling/rate.hpp"
@@ -86,12 +87,7 @@ struct TunnellingChoices {
 };
 
 // --- cosmology, scan, exclusion, output --------------------------------------------------------
-struct CosmologyInputs {
-  double hubble;  // h
-  double omega_b_h2, omega_cdm_h2;
-  double cmb_temperature;  // GeV
-  double n_eff;
-};
+using CosmologyInputs = cosmology::Parameters;  // h, Omega_b h^2, Omega_c h^2, T_CMB (GeV), N_eff
 
 struct MassGrid {
   double from, to;  // GeV
@@ -132,6 +128,7 @@ struct Scenario {
   ScanChoices scan;
   ExclusionRule exclusion;
   OutputChoices output;
+  std::optional<std::filesystem::path> dof_table;  // cosmology.dof_table; none: the shipped table
 };
 
 // Reads a resolved document (every key present and valid).
