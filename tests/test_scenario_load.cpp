@@ -39,6 +39,8 @@ TEST_CASE("every variant reads into its typed form") {
     CHECK(fs::equivalent(t.file, source_dir / "tests/data/good/table_spectrum.tsv"));
     CHECK(t.mass_unit == "g");
     CHECK(s.population.abundance.measure == AbundanceMeasure::lightcone_count);
+    REQUIRE(s.dof_table);
+    CHECK(fs::equivalent(*s.dof_table, source_dir / "data/relativistic_dof.tsv"));
   }
   SUBCASE("polynomial potential, thin wall and scan lists") {
     const auto s = load_scenario_file(source_dir / "tests/data/good/polynomial_potential.yaml").scenario;

@@ -93,19 +93,9 @@ ScanChoices read_scan(const YAML::Node& n) {
                           read_axis(b["alpha_s"], false), numbers(b["lambda6"]), numbers(b["lambda8"])}};
 }
 
-// Everything but the optional keys.
-Scenario read_main(const YAML::Node& r);
-
 }  // namespace
 
 Scenario read_scenario(const YAML::Node& r) {
-  Scenario s = read_main(r);
-  if (r["cosmology"]["dof_table"]) s.dof_table = r["cosmology"]["dof_table"].Scalar();
-  return s;
-}
-
-namespace {
-Scenario read_main(const YAML::Node& r) {
   const YAML::Node pop = r["population"], sm = r["standard_model"], ev = r["evaporation"], cos = r["cosmology"],
                    out = r["output"];
   return Scenario{
@@ -121,9 +111,8 @@ Scenario read_main(const YAML::Node& r) {
       read_scan(r["scan"]),
       ExclusionRule{num(r["exclusion"]["max_decays"])},
       OutputChoices{out["directory"].Scalar(), words(out["files"]), words(out["plot_formats"])},
+      cos["dof_table"] ? std::optional<std::filesystem::path>(cos["dof_table"].Scalar()) : std::nullopt,
   };
 }
-
-}  // namespace
 
 }  // namespace ember::scenario

@@ -158,7 +158,11 @@ Key cosmology() {
        number("omega_b_h2", "baryon density Omega_b h^2", format_real(p.omega_b_h2), between(0, 0.1)),
        number("omega_cdm_h2", "cold dark matter density Omega_c h^2", format_real(p.omega_cdm_h2), between(0.001, 0.5)),
        quantity("cmb_temperature", "CMB temperature today", units::temperature, "K", kelvin, between(1, 5)),
-       number("n_eff", "effective number of neutrino species", format_real(p.n_eff), between(0, 10))});
+       number("n_eff", "effective number of neutrino species", format_real(p.n_eff), between(0, 10)),
+       with_example(input_file("dof_table",
+                               "g_rho(T) and g_s(T) table (T in GeV, g_rho, g_s); absent: the shipped "
+                               "data/relativistic_dof.tsv (Saikawa & Shirai 2018)"),
+                    "my_dof.tsv")});
 }
 
 Key band_axis(std::string name, std::string meaning, Key sigma) {
