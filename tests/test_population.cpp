@@ -176,6 +176,29 @@ TEST_CASE("a stable potential gives no constraint, and says so") {
   }
 }
 
+TEST_CASE("results do not depend on the thread count") {
+  auto loaded = scenario::load_scenario_file(source_dir / "configs/higgs_sensitivity.yaml");
+  loaded.scenario.scan.masses.points = 3;
+  loaded.scenario.scan.band.top_mass.points = 2;
+  loaded.scenario.scan.band.higgs_mass.points = 1;
+  loaded.scenario.scan.band.alpha_s.points = 1;
+  loaded.scenario.scan.band.lambda6.clear();
+  scenario::JobOptions one, two;
+  one.threads = 1;
+  two.threads = 2;
+  const scenario::JobResults a = scenario::run_job(loaded.scenario, one), b = scenario::run_job(loaded.scenario, two);
+  REQUIRE(a.outcomes.size() == b.outcomes.size());
+  for (std::size_t k = 0; k < a.outcomes.size(); ++k) {
+    CHECK(a.outcomes[k].counts.lightcone == b.outcomes[k].counts.lightcone);  // bit for bit
+    for (std::size_t r = 0; r < a.outcomes[k].curve.size(); ++r) {
+      CHECK(a.outcomes[k].curve[r].beta_max == b.outcomes[k].curve[r].beta_max);
+      CHECK(a.outcomes[k].curve[r].band_low == b.outcomes[k].curve[r].band_low);
+      CHECK(a.outcomes[k].curve[r].band_high == b.outcomes[k].curve[r].band_high);
+    }
+  }
+  CHECK(a.band.size() == 3);  // the central point and M_t at -2 and +2 sigma
+}
+
 TEST_CASE("the job runs end to end on the demo with a reduced grid") {
   auto loaded = scenario::load_scenario_file(source_dir / "configs/demo.yaml");
   loaded.scenario.scan.masses.points = 4;

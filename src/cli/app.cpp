@@ -6,6 +6,7 @@
 
 #include "command.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_status.hpp"
 #include "ember/version.hpp"
 
 namespace ember::cli {
@@ -33,6 +34,7 @@ int report(const std::string& kind, const std::string& message, int code) {
 }  // namespace
 
 int run(int argc, char** argv) {
+  use_gsl_status_codes();
   CLI::App app{
       "Ember: is a population of primordial black holes excluded because, while evaporating, the holes "
       "would have seeded decay of the metastable Higgs vacuum?",

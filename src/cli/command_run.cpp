@@ -6,6 +6,7 @@
 
 #include "command.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/parallel.hpp"
 #include "ember/report/outputs.hpp"
 #include "ember/scenario/job.hpp"
 
@@ -15,15 +16,19 @@ namespace {
 
 struct RunOptions {
   std::string scenario, output;
-  bool json = false, no_plots = false;
+  bool json = false, no_plots = false, quiet = false;
+  int threads = default_threads();
 };
 
 int run(const RunOptions& o) {
   const scenario::LoadedScenario loaded = scenario::load_scenario_file(o.scenario);  // input, validated whole
   const std::filesystem::path out =
       o.output.empty() ? loaded.scenario.output.directory : std::filesystem::path(o.output);
-  const scenario::JobResults results = scenario::run_job(loaded.scenario);  // cosmology, evaporation, higgs,
-                                                                            // tunnelling, population
+  scenario::JobOptions job;
+  job.threads = o.threads;
+  job.quiet = o.quiet;
+  const scenario::JobResults results = scenario::run_job(loaded.scenario, job);  // cosmology, evaporation,
+                                                                                 // higgs, tunnelling, population
   const report::Written written = report::write_outputs(loaded, results, out, !o.no_plots);
   if (o.json) {
     auto j = report::summary_json(loaded, results);
@@ -49,6 +54,9 @@ Command add_run(CLI::App& parent) {
   app->add_option("scenario", o->scenario, "scenario file (YAML)")->required();
   app->add_option("-o,--output", o->output, "results folder (default: the scenario's output.directory)");
   app->add_flag("--no-plots", o->no_plots, "write the plot data but do not run scripts/plot");
+  app->add_option("--threads", o->threads, "worker threads (default: the cores available); results do not depend on it")
+      ->check(CLI::Range(1, 1024));
+  app->add_flag("--quiet", o->quiet, "no progress bar");
   app->add_flag("--json", o->json, "print the summary as one JSON object on stdout");
   return {app, [o] { return run(*o); }};
 }

@@ -21,6 +21,7 @@ void Progress::advance(long done, const std::string& detail) {
   const double since_last = std::chrono::duration<double>(now - last_).count();
   if (terminal_ ? since_last < 0.1 : since_last < 3.0) return;
   last_ = now;
+  shown_ = true;
   const double elapsed = std::chrono::duration<double>(now - start_).count();
   const double fraction = static_cast<double>(done) / static_cast<double>(total_);
   const double rate = elapsed > 0 ? static_cast<double>(done) / elapsed : 0;
@@ -37,7 +38,7 @@ void Progress::advance(long done, const std::string& detail) {
 }
 
 void Progress::finish() {
-  if (quiet_ || finished_) return;
+  if (quiet_ || finished_ || !shown_) return;
   finished_ = true;
   const double elapsed = std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
   if (terminal_) fmt::print(stderr, "\r{}\r", std::string(100, ' '));

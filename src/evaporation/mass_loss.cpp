@@ -10,6 +10,7 @@
 #include <functional>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_status.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::evaporation {
@@ -103,10 +104,9 @@ struct MassLoss::Kernel {
     std::unique_ptr<gsl_integration_workspace, decltype(&gsl_integration_workspace_free)> w(
         gsl_integration_workspace_alloc(200), gsl_integration_workspace_free);
     double result = 0, abserr = 0;
-    gsl_error_handler_t* old = gsl_set_error_handler_off();
+    use_gsl_status_codes();
     const int status = gsl_integration_qag(&g, p_lo, p_hi, 0.0, tolerance::window_quadrature_relative, 200,
                                            GSL_INTEG_GAUSS31, w.get(), &result, &abserr);
-    gsl_set_error_handler(old);
     if (status != GSL_SUCCESS && status != GSL_EROUND)
       throw NumericalError("momentum-window quadrature (GSL qag)",
                            fmt::format("spin {}/2, m = {:.4g}, window [{:.4g}, {:.4g}): {}", twice_spin, m, lo, hi,

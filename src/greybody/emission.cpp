@@ -8,6 +8,7 @@
 #include <memory>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_status.hpp"
 
 namespace ember::greybody {
 
@@ -41,10 +42,9 @@ double integrate(const Integrand& in, double* abserr) {
       gsl_integration_workspace_alloc(workspace_size), gsl_integration_workspace_free);
   gsl_function f{integrand, const_cast<Integrand*>(&in)};
   double result = 0;
-  gsl_error_handler_t* old = gsl_set_error_handler_off();
+  use_gsl_status_codes();
   const int status =
       gsl_integration_qags(&f, 0.0, x_upper, 0.0, quadrature_relative, workspace_size, w.get(), &result, abserr);
-  gsl_set_error_handler(old);
   if (status != GSL_SUCCESS && status != GSL_EROUND)
     throw NumericalError(
         "thermal emission quadrature (GSL qags)",

@@ -9,6 +9,7 @@
 #include <functional>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_status.hpp"
 
 namespace ember::higgs {
 
@@ -76,7 +77,7 @@ GridMin scan_min(const Fn& f, double lo, double hi) {
 }  // namespace
 
 StabilityReport analyse_stability(const StandardModelPotential& pot, const StabilityOptions& o) {
-  gsl_error_handler_t* old = gsl_set_error_handler_off();
+  use_gsl_status_codes();
   const Running& run = pot.running();
   const double t0 = std::log(run.mu_min()), t1 = std::log(run.mu_max());
   const double t_pl = std::min(t1, std::log(o.scale_limit));
@@ -126,7 +127,6 @@ StabilityReport analyse_stability(const StandardModelPotential& pot, const Stabi
       "flat-space Fubini bounce, S = 8 pi^2 / (3 |q(mu)|) with the MS-bar quartic at mu = 1/R plus the "
       "Planck-suppressed "
       "operators at h = mu; p = max_mu (mu/H0)^4 e^{-S}";
-  gsl_set_error_handler(old);
   return r;
 }
 
@@ -143,7 +143,7 @@ double critical_top_mass(const Inputs& inputs, const RunOptions& run, const Stab
     throw NumericalError(
         "critical top mass (GSL Brent)",
         fmt::format("lambda_min does not change sign over M_t in [{}, {}] GeV ({:.4g}, {:.4g})", lo, hi, f_lo, f_hi));
-  gsl_error_handler_t* old = gsl_set_error_handler_off();
+  use_gsl_status_codes();
   std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
                                                                         gsl_root_fsolver_free);
   gsl_function g{call, const_cast<Fn*>(&lambda_min)};
@@ -156,7 +156,6 @@ double critical_top_mass(const Inputs& inputs, const RunOptions& run, const Stab
         GSL_SUCCESS)
       break;
   }
-  gsl_set_error_handler(old);
   return root;
 }
 

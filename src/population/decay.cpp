@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_status.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::population {
@@ -22,9 +23,8 @@ double qag(const std::function<double(double)>& f, double lo, double hi, double 
   std::unique_ptr<gsl_integration_workspace, decltype(&gsl_integration_workspace_free)> w(
       gsl_integration_workspace_alloc(1000), gsl_integration_workspace_free);
   double r = 0, e = 0;
-  gsl_error_handler_t* old = gsl_set_error_handler_off();
+  use_gsl_status_codes();
   const int status = gsl_integration_qag(&g, lo, hi, 0.0, rel, 1000, GSL_INTEG_GAUSS31, w.get(), &r, &e);
-  gsl_set_error_handler(old);
   if (status != GSL_SUCCESS && status != GSL_EROUND && !(std::abs(e) <= 1e-4 * std::abs(r)))
     throw NumericalError(
         what, fmt::format("{} over [{:.4g}, {:.4g}]: result {:.6e} +- {:.1e}", gsl_strerror(status), lo, hi, r, e));

@@ -4,8 +4,11 @@
 
 #include <chrono>
 #include <cmath>
+#include <mutex>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/parallel.hpp"
+#include "ember/core/progress.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/tunnelling/landscape.hpp"
 
@@ -170,17 +173,114 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   table_options.midpoint_stride = o.table_check_stride;
 
   const std::vector<HiggsPoint> points = higgs_points(s.standard_model, s.scan);
+  const std::size_t n_presc = s.tunnelling.prescriptions.size();
   for (const Prescription p : s.tunnelling.prescriptions)
     out.outcomes.push_back({p, {}, 1.0, false, {}, {}, "", {}, {}});
-  // beta_max per prescription, row and Higgs point, for the envelope.
-  std::vector<std::vector<std::vector<std::optional<double>>>> band_values(
-      out.outcomes.size(), std::vector<std::vector<std::optional<double>>>(rows.size()));
+  for (int i = 0; i < o.plot_points; ++i)
+    out.plot_masses.push_back(s.tunnelling.semiclassical_floor *
+                              std::pow(1e10, static_cast<double>(i) / (o.plot_points - 1)));
 
-  for (const HiggsPoint& hp : points) {
-    const PointModel model = model_for(hp, s.standard_model);
-    BandPoint bp{hp, model.stability ? model.stability->verdict : higgs::Verdict::metastable, false,
+  // Every Higgs point's potential and verdict, then every (point, prescription) unit: independent
+  // work, each writing only its own slot, so the results do not depend on the thread count.
+  std::vector<PointModel> models(points.size());
+  parallel_for(points.size(), o.threads, [&](std::size_t i) { models[i] = model_for(points[i], s.standard_model); });
+
+  struct Unit {
+    std::vector<std::optional<double>> beta_max, f_max;
+    std::vector<population::Response> scan;
+    population::Counts counts;
+    std::string table_summary;
+    std::vector<double> plot_ratio;
+  };
+  std::vector<Unit> units(points.size() * n_presc);
+  Progress progress("ember run", static_cast<long>(units.size()), o.quiet);
+  std::mutex progress_mutex;
+  long done = 0;
+  parallel_for(units.size(), o.threads, [&](std::size_t index) {
+    const std::size_t point = index / n_presc, k = index % n_presc;
+    const PointModel& model = models[point];
+    const bool central = points[point].central;
+    const Prescription p = s.tunnelling.prescriptions[k];
+    Unit& unit = units[index];
+    unit.beta_max.assign(rows.size(), std::nullopt);
+    unit.f_max.assign(rows.size(), std::nullopt);
+    if (!(model.no_decay && p != Prescription::thin_wall)) {
+      tunnelling::TunnellingSetup setup;
+      setup.potential = model.potential.get();
+      setup.standard_model = model.sm;
+      if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
+        setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
+      setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
+      setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
+      const tunnelling::ActionTable table(p, setup, table_options);
+      std::vector<population::Response> grid;
+      if (!base->monochromatic()) grid = population::response_grid(lo, hi, o.responses_per_decade, table, context);
+      for (std::size_t r = 0; r < rows.size(); ++r) {
+        if (base->monochromatic()) {
+          const population::Response resp = population::response_at(rows[r].first, table, context);
+          if (resp.lightcone_per_beta > 0) {
+            unit.beta_max[r] = s.exclusion.max_decays / resp.lightcone_per_beta;
+            unit.f_max[r] = *unit.beta_max[r] * resp.f_per_beta;
+          }
+          if (central) unit.scan.push_back(resp);
+        } else {
+          const double per_f = population::lightcone_per_amplitude(*row_spectra[r], grid);
+          if (per_f > 0) {
+            unit.f_max[r] = s.exclusion.max_decays / per_f;
+            unit.beta_max[r] =
+                *unit.f_max[r] /
+                population::f_pbh_per_beta(
+                    population::formation_of(rows[r].first, s.population.collapse_fraction, background), background);
+          }
+        }
+      }
+      if (central) {
+        // The scenario's own abundance, and Gamma_D / Gamma_H for the plot.
+        std::vector<population::Response> own = base->monochromatic()
+                                                    ? std::vector<population::Response>{population::response_at(
+                                                          base->characteristic_mass(), table, context)}
+                                                    : grid;
+        unit.counts = population::counts_for(*base, measure_of(s.population.abundance.measure),
+                                             s.population.abundance.value, own);
+        if (!base->monochromatic()) unit.scan = grid;
+        unit.table_summary = table.summary().message;
+        for (const double m : out.plot_masses) {
+          const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), mass_loss, s.tunnelling.prefactor);
+          unit.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
+        }
+      }
+    }
+    const std::lock_guard<std::mutex> lock(progress_mutex);
+    progress.advance(++done, name_of(p));
+  });
+  progress.finish();
+
+  // Assemble, in order.
+  std::vector<std::vector<std::vector<std::optional<double>>>> band_values(
+      n_presc, std::vector<std::vector<std::optional<double>>>(rows.size()));
+  for (std::size_t point = 0; point < points.size(); ++point) {
+    const PointModel& model = models[point];
+    BandPoint bp{points[point], model.stability ? model.stability->verdict : higgs::Verdict::metastable, false,
                  model.stability ? model.stability->log10_decay_probability : std::nullopt};
-    if (hp.central) {
+    for (std::size_t k = 0; k < n_presc; ++k) {
+      const Unit& unit = units[point * n_presc + k];
+      for (std::size_t r = 0; r < rows.size(); ++r) {
+        band_values[k][r].push_back(unit.beta_max[r]);
+        bp.constraint |= unit.beta_max[r].has_value();
+      }
+      if (!points[point].central) continue;
+      PrescriptionOutcome& outcome = out.outcomes[k];
+      for (std::size_t r = 0; r < rows.size(); ++r)
+        outcome.curve.push_back(
+            {rows[r].first, rows[r].second.value_or(0), unit.beta_max[r], unit.f_max[r], {}, {}, 0});
+      outcome.scan = unit.scan;
+      outcome.counts = unit.counts;
+      outcome.survival = std::exp(-unit.counts.lightcone);
+      outcome.excluded = unit.counts.lightcone > s.exclusion.max_decays;
+      outcome.table_summary = unit.table_summary;
+      outcome.plot_ratio = unit.plot_ratio;
+    }
+    if (points[point].central) {
       out.potential = model.potential->description();
       out.stability = model.stability;
       if (model.no_decay) {
@@ -195,71 +295,6 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
           out.plot_lambda.push_back(model.running->lambda(h));
           out.plot_lambda_eff.push_back(model.sm->lambda_eff(h));
         }
-      }
-    }
-    tunnelling::TunnellingSetup setup;
-    setup.potential = model.potential.get();
-    setup.standard_model = model.sm;
-    if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
-      setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
-    setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
-    setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
-
-    for (std::size_t k = 0; k < out.outcomes.size(); ++k) {
-      PrescriptionOutcome& outcome = out.outcomes[k];
-      const Prescription p = outcome.prescription;
-      if (model.no_decay && p != Prescription::thin_wall) {
-        for (auto& v : band_values[k]) v.emplace_back(std::nullopt);
-        if (hp.central)
-          for (std::size_t r = 0; r < rows.size(); ++r)
-            outcome.curve.push_back({rows[r].first, rows[r].second.value_or(0), {}, {}, {}, {}, 0});
-        continue;
-      }
-      const tunnelling::ActionTable table(p, setup, table_options);
-      std::vector<population::Response> grid;
-      if (!base->monochromatic()) grid = population::response_grid(lo, hi, o.responses_per_decade, table, context);
-      for (std::size_t r = 0; r < rows.size(); ++r) {
-        std::optional<double> beta_max, f_max;
-        if (base->monochromatic()) {
-          const population::Response resp = population::response_at(rows[r].first, table, context);
-          if (resp.lightcone_per_beta > 0) {
-            beta_max = s.exclusion.max_decays / resp.lightcone_per_beta;
-            f_max = *beta_max * resp.f_per_beta;
-          }
-          if (hp.central) outcome.scan.push_back(resp);
-        } else {
-          const double per_f = population::lightcone_per_amplitude(*row_spectra[r], grid);
-          if (per_f > 0) {
-            f_max = s.exclusion.max_decays / per_f;
-            beta_max = *f_max / population::f_pbh_per_beta(
-                                    population::formation_of(rows[r].first, s.population.collapse_fraction, background),
-                                    background);
-          }
-        }
-        band_values[k][r].push_back(beta_max);
-        if (beta_max) bp.constraint = true;
-        if (hp.central)
-          outcome.curve.push_back({rows[r].first, rows[r].second.value_or(0), beta_max, f_max, {}, {}, 0});
-      }
-      if (!hp.central) continue;
-      // The scenario's own abundance.
-      std::vector<population::Response> own =
-          base->monochromatic()
-              ? std::vector<population::Response>{population::response_at(base->characteristic_mass(), table, context)}
-              : grid;
-      outcome.counts =
-          population::counts_for(*base, measure_of(s.population.abundance.measure), s.population.abundance.value, own);
-      if (!base->monochromatic()) outcome.scan = grid;
-      outcome.survival = std::exp(-outcome.counts.lightcone);
-      outcome.excluded = outcome.counts.lightcone > s.exclusion.max_decays;
-      outcome.table_summary = table.summary().message;
-      // Gamma_D / Gamma_H for the plot.
-      if (out.plot_masses.empty())
-        for (int i = 0; i < o.plot_points; ++i)
-          out.plot_masses.push_back(table.floor() * std::pow(1e10, static_cast<double>(i) / (o.plot_points - 1)));
-      for (const double m : out.plot_masses) {
-        const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), mass_loss, s.tunnelling.prefactor);
-        outcome.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
       }
     }
     out.band.push_back(bp);

@@ -121,9 +121,9 @@ ActionTable::ActionTable(Prescription p, const TunnellingSetup& s, const ActionT
   summary_.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   summary_.message = fmt::format(
       "{}: {} nodes from {:.3g} to {:.3g} M_Pl, {} branch{}, interpolation error in B "
-      "{:.2g} of max(B, 1) ({} checks), {:.2f} s",
+      "{:.2g} of max(B, 1) ({} checks)",
       name_of(p), summary_.nodes, floor_ / units::planck_mass, top_ / units::planck_mass, branches_.size(),
-      branches_.size() == 1 ? "" : "es", summary_.interpolation_error, summary_.checks, summary_.seconds);
+      branches_.size() == 1 ? "" : "es", summary_.interpolation_error, summary_.checks);
 }
 
 ActionPoint ActionTable::interpolate(double seed) const {

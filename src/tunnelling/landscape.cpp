@@ -8,6 +8,7 @@
 #include <functional>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_status.hpp"
 
 namespace ember::tunnelling {
 
@@ -18,7 +19,7 @@ double call(double x, void* p) {
 }
 
 double brent_root(const Fn& f, double a, double b) {
-  gsl_error_handler_t* old = gsl_set_error_handler_off();
+  use_gsl_status_codes();
   std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
                                                                         gsl_root_fsolver_free);
   gsl_function g{call, const_cast<Fn*>(&f)};
@@ -29,7 +30,6 @@ double brent_root(const Fn& f, double a, double b) {
         GSL_SUCCESS)
       break;
   }
-  gsl_set_error_handler(old);
   return gsl_root_fsolver_root(s.get());
 }
 }  // namespace

@@ -206,8 +206,16 @@ if /usr/bin/python3 -c 'import matplotlib' 2>/dev/null; then
   done
 fi
 ls -a "$work/run" | grep -q '\.tmp\.' && fail "run demo: temporary file left behind"
-run "run json" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run2" --json --no-plots
+run "run json" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run2" --json --no-plots --threads 1
+
 json_ok "run json"
+# The same files whatever the thread count (summary.json differs only in its timing).
+run "run two threads" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run3" --no-plots --threads 2 --quiet
+for f in constraint.csv decay.csv rates.csv potential.csv resolved.yaml; do
+  cmp -s "$work/run2/$f" "$work/run3/$f" || fail "run: $f differs between 1 and 2 threads"
+done
+diff <(grep -v '"seconds"' "$work/run2/summary.json") <(grep -v '"seconds"' "$work/run3/summary.json") >/dev/null ||
+  fail "run: summary.json differs between 1 and 2 threads beyond timing"
 run "run bad scenario" 2 -- "$ember" run "$src/tests/data/bad/unknown_key.yaml" -o "$work/never-run"
 [[ -e "$work/never-run" ]] && fail "run bad scenario: wrote output"
 run "run unwritable folder" 2 -- "$ember" run "$work/demo-small.yaml" -o "$src/configs/demo.yaml" --no-plots

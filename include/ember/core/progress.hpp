@@ -1,5 +1,6 @@
 // Progress of long work on stderr: a redrawn bar with rate and time left on a terminal, a plain
-// line every few seconds otherwise, nothing when quiet.
+// line every few seconds otherwise, nothing when quiet. Work done before the first update is due
+// prints nothing at all.
 #pragma once
 
 #include <chrono>
@@ -16,7 +17,7 @@ class Progress {
  private:
   std::string label_;
   long total_;
-  bool quiet_, terminal_, finished_ = false;
+  bool quiet_, terminal_, finished_ = false, shown_ = false;
   std::chrono::steady_clock::time_point start_, last_;
 };
 

@@ -23,6 +23,8 @@ struct JobOptions {
   int responses_per_decade = 10;  // formation masses per decade for extended spectra
   int decay_grid_points = 500;    // ln M grid for decay times and crossovers (DecayOptions)
   int plot_points = 120;          // seed masses for the Gamma_D/Gamma_H plot data
+  int threads = 1;                // worker threads; the results do not depend on it
+  bool quiet = true;              // no progress bar on stderr
 };
 
 struct HiggsPoint {
