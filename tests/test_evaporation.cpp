@@ -157,6 +157,8 @@ TEST_CASE("the momentum option transmits less, and the QCD split follows its sca
       energy(greybody(), all().only({"photon", "electron", "muon", "higgs"}));
   for (double m : {1e10, 1e14, 1e16}) {
     CHECK(ml.alpha(grams(m)) <= energy.alpha(grams(m)));
+    // Loose bound (ours): these species are light next to T_H at these masses, so p and E
+    // differ little and the momentum option cannot lose half the power.
     CHECK(ml.alpha(grams(m)) > 0.5 * energy.alpha(grams(m)));
   }
   // A confinement scale below the pion mass leaves no energies for pions.
@@ -188,4 +190,14 @@ TEST_CASE("options and particle files are validated by name") {
     CAPTURE(file);
     CHECK_THROWS_WITH_AS(load_particles(dir / file), doctest::Contains(fragment), ember::InputError);
   }
+}
+
+TEST_CASE("a hole lighter than the cutoff is all analytic tail at its own alpha") {
+  // tau = M^3 / (3 alpha(M)) for alpha held at its value at M (derived from dM/dt = -alpha/M^2).
+  TrajectoryOptions high;
+  high.cutoff_mass = grams(1e20);
+  const Trajectory t(standard_model(), grams(1e15), high);
+  const double m = grams(1e15);
+  CHECK(close(t.lifetime(), m * m * m / (3 * standard_model().alpha(m)), 1e-12));
+  CHECK(close(t.cutoff_mass(), m, 1e-15));
 }

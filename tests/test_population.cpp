@@ -214,3 +214,27 @@ TEST_CASE("the job runs end to end on the demo with a reduced grid") {
   CHECK(r.stability);
   CHECK(r.stability->verdict == higgs::Verdict::metastable);
 }
+
+TEST_CASE("the trajectory cutoff never moves the end of the hazard integral") {
+  // cutoff_mass only sets where the numerical trajectory hands over to the analytic tail; the
+  // hazard runs to the semiclassical floor either way (derived: Gamma_D / Gamma_H per ln M does
+  // not depend on the trajectory). A cutoff above the formation mass once gave zero.
+  population::ResponseContext c = context();
+  const population::Response plain = population::response_at(gram(1e10), probe_table(), c);
+  c.trajectory.cutoff_mass = gram(1e12);
+  const population::Response cut = population::response_at(gram(1e10), probe_table(), c);
+  CHECK_FALSE(cut.decay.formed_below_floor);
+  CHECK(close(cut.decay.hazard, plain.decay.hazard, 1e-6));
+  CHECK(cut.lightcone_per_beta > 0);
+}
+
+TEST_CASE("formable masses: after T = 1e19 GeV and before today") {
+  const population::MassRange r = population::formable_masses(0.2, background());
+  // The schema's formation-mass range [1e-6 g, 1e50 g] lies inside it for gamma <= 1 (ours).
+  const population::MassRange widest = population::formable_masses(1.0, background());
+  CHECK(widest.low < gram(1e-6));
+  CHECK(r.high > gram(1e50));
+  CHECK_NOTHROW(population::formation_of(r.low, 0.2, background()));
+  CHECK_NOTHROW(population::formation_of(r.high, 0.2, background()));
+  CHECK_THROWS_AS(population::formation_of(0.99 * r.low, 0.2, background()), InputError);
+}

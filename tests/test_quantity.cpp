@@ -39,7 +39,7 @@ TEST_CASE("the forms users write parse to internal units") {
   CHECK(close(parse_quantity("1 TeV^3", {Dimension::energy, 3}).value, 1e9));
   // 1 g = 5.60958860e23 GeV (CODATA 2018 electron volt-kilogram relationship, inverted).
   CHECK(close(parse_quantity("1 g", mass).value, 5.609588606e23, 1e-9));
-  // 1 s = 1.519267447e24 GeV^-1 (CODATA 2018 hbar = 6.582119569e-16 eV s, inverted).
+  // 1 s = 1.519267448e24 GeV^-1 (CODATA 2018 hbar = 6.582119569e-16 eV s, inverted).
   CHECK(close(parse_quantity("1 s", ember::units::time).value, 1.519267448e24, 1e-9));
 }
 

@@ -39,3 +39,13 @@ TEST_CASE("alternatives read as a sentence") {
   CHECK(join_alternatives({"a", "b"}, "and") == "a and b");
   CHECK(trim("  x y \n") == "x y");
 }
+
+TEST_CASE("printable escapes control characters and invalid UTF-8, keeps valid UTF-8") {
+  // Valid sequences per RFC 3629 (Yergeau 2003, section 4): "\xC3\xA9" is U+00E9.
+  CHECK(printable("peak_mass") == "peak_mass");
+  CHECK(printable("caf\xC3\xA9") == "caf\xC3\xA9");
+  CHECK(printable("a\xFF\xFE") == "a\\xFF\\xFE");
+  CHECK(printable("tab\there") == "tab\\x09here");
+  CHECK(printable("\xC0\xAF") == "\\xC0\\xAF");  // an overlong '/' (RFC 3629 section 10)
+  CHECK(printable("\xE2\x82") == "\\xE2\\x82");  // cut short
+}

@@ -1,11 +1,17 @@
 // Seeded and unseeded tunnelling: flat-space bounces, static bubbles around holes, thin walls,
 // the prescriptions side by side and the B(M) tables.
 #include <doctest/doctest.h>
+#include <fmt/format.h>
+#include <unistd.h>
 
 #include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <iterator>
 
 #include "ember/core/errors.hpp"
 #include "ember/higgs/stability.hpp"
+#include "ember/tunnelling/action_cache.hpp"
 #include "ember/tunnelling/action_table.hpp"
 #include "ember/tunnelling/flat_bounce.hpp"
 #include "ember/tunnelling/rate.hpp"
@@ -52,6 +58,7 @@ TEST_CASE("flat O(4) bounce approaches the thin-wall action 27 pi^2 sigma^4 / (2
     if (eps <= 0.05) CHECK(close(b.wall_radius, thin_wall_radius({2.0 / 3.0, eps}), 0.02));  // R0 = 3 sigma / eps
     previous = deviation;
   }
+  // Tolerance (ours): at the thinnest wall the ratio has converged to 1 to within 3e-4.
   CHECK(previous < 3e-4);
 }
 
@@ -115,6 +122,7 @@ TEST_CASE("probe-limit and back-reacted bubbles agree as G E -> 0") {
     CHECK(d < previous / 50);
     previous = d;
   }
+  // Tolerance (ours): the smallest difference reached, well inside the stated error.
   CHECK(previous < 1e-5);
   // Standard Model bubbles at physical G: the same to 1e-8.
   StaticOptions probe;
@@ -156,6 +164,7 @@ TEST_CASE("static solutions converge and satisfy the field equation along the wa
                        c = solve_static(standard_model(), m, tight);
   CHECK(std::abs(b.action.value - c.action.value) <= std::abs(a.action.value - c.action.value) + 1e-12);
   CHECK(close(b.action.value, c.action.value, 1e-7));
+  // Tolerance (ours): the solver's stated field-equation residual target.
   CHECK(b.max_residual < 1e-5);
   CHECK(b.summary.status == BounceStatus::converged);
   // A wall thinner than ln phi_h resolves is flagged, not passed off as a solution.
@@ -203,9 +212,9 @@ TEST_CASE("the prescriptions side by side for the Standard Model") {
   // no_seed is the higgs module's Fubini estimate: its log10 p (with H0) follows from the same
   // S and scale (derived from both prescriptions' definitions).
   const auto report = higgs::analyse_stability(standard_model());
-  REQUIRE(report.log10_decay_probability);
+  REQUIRE(report.log10_expected_decays);
   const double s_from_p = (4 * std::log(report.bounce_scale / higgs::StabilityOptions{}.hubble_rate) -
-                           *report.log10_decay_probability * std::log(10.0));
+                           *report.log10_expected_decays * std::log(10.0));
   CHECK(close(none.action.value, s_from_p, 1e-4));
   // Flags: below the floor; hot_bubble at the highest temperatures is flagged outside the running.
   CHECK(action_at(Prescription::probe_field, s, 10 * m_pl).flags.below_floor);
@@ -230,6 +239,7 @@ TEST_CASE("B(M) tables interpolate direct solves within their stated error") {
   for (const auto p : {Prescription::probe_field, Prescription::entropy_drop, Prescription::hot_bubble}) {
     const ActionTable t(p, s);
     CAPTURE(name_of(p));
+    // Tolerance (ours): the accuracy the B(M) table promises between its nodes.
     CHECK(t.summary().interpolation_error < 1e-3);
     for (double m : {2.7e3, 4.1e5, 6.3e7}) {
       const ActionPoint looked = t.at(m * m_pl), direct = action_at(p, s, m * m_pl);
@@ -240,4 +250,84 @@ TEST_CASE("B(M) tables interpolate direct solves within their stated error") {
   ActionTableOptions bad;
   bad.points = 2;
   CHECK_THROWS_WITH_AS(bad.validate(), doctest::Contains("points"), ember::InputError);
+}
+
+TEST_CASE("heavy seeds: no bracket is an error, and never a negative B") {
+  // Around 1e13 M_Pl the Standard Model shot from the escape point already overshoots: the solver
+  // must say so (and the prescriptions fall back, flagged) rather than report B < 0 (found in review).
+  CHECK_THROWS_WITH_AS(solve_static(standard_model(), 1e20 * m_pl, {}), doctest::Contains("not bracketed"),
+                       NumericalError);
+  const TunnellingSetup s = sm_setup();
+  for (const auto p : {Prescription::entropy_drop, Prescription::probe_field}) {
+    const ActionPoint a = action_at(p, s, 1e20 * m_pl);
+    CAPTURE(name_of(p));
+    CHECK(a.flags.fallback);
+    CHECK(a.action.value > 0);
+    const Rates r =
+        rates_at(a, evaporation::MassLoss(greybody::load_default_table(), evaporation::load_default_particles()),
+                 Prefactor::root_action);
+    CHECK(std::isfinite(r.branching_ratio));
+  }
+  // A non-finite or negative B reaching the rate is a numerical failure, not a NaN.
+  ActionPoint bad;
+  bad.seed_mass = 1e5 * m_pl;
+  bad.action = {-3.0, 0.0};
+  CHECK_THROWS_AS(
+      rates_at(bad, evaporation::MassLoss(greybody::load_default_table(), evaporation::load_default_particles()),
+               Prefactor::root_action),
+      NumericalError);
+}
+
+TEST_CASE("cached B(M) tables: a hit is bit for bit, a change misses, damage is rebuilt") {
+  const auto dir = std::filesystem::temp_directory_path() / fmt::format("ember-cache-test-{}", ::getpid());
+  std::filesystem::remove_all(dir);
+  const TunnellingSetup s = sm_setup();
+  ActionTableOptions o;
+  o.points = 12;
+  o.midpoint_stride = 4;
+  const CachedTable first = cached_action_table(Prescription::probe_field, s, o, dir);
+  const CachedTable second = cached_action_table(Prescription::probe_field, s, o, dir);
+  CHECK_FALSE(first.hit);
+  CHECK(second.hit);
+  for (double m : {1e3, 3.3e4, 1e6, 7e7}) {  // identical numbers, not merely close (hex floats)
+    CHECK(first.table.at(m * m_pl).action.value == second.table.at(m * m_pl).action.value);
+    CHECK(first.table.at(m * m_pl).action.error == second.table.at(m * m_pl).action.error);
+  }
+  CHECK(second.table.summary().message == first.table.summary().message);
+  // Anything the table depends on changes the key.
+  ActionTableOptions more = o;
+  more.points = 13;
+  TunnellingSetup floor = s;
+  floor.semiclassical_floor *= 2;
+  const higgs::StandardModelPotential other(std::make_shared<const higgs::Running>([] {
+    higgs::Inputs in = higgs::default_inputs();
+    in.top_mass += 0.1;
+    return in;
+  }()));
+  TunnellingSetup top = s;
+  top.potential = top.standard_model = &other;
+  const std::string key = action_table_key(Prescription::probe_field, s, o);
+  CHECK(action_table_key(Prescription::entropy_drop, s, o) != key);
+  CHECK(action_table_key(Prescription::probe_field, s, more) != key);
+  CHECK(action_table_key(Prescription::probe_field, floor, o) != key);
+  CHECK(action_table_key(Prescription::probe_field, top, o) != key);
+  // A damaged entry (one digit changed, still parseable) fails its checksum and is rebuilt.
+  {
+    std::ifstream in(dir / key);
+    std::string text((std::istreambuf_iterator<char>(in)), {});
+    text[text.find("0x1.") + 4] ^= 1;
+    std::ofstream(dir / key) << text;
+  }
+  const CachedTable third = cached_action_table(Prescription::probe_field, s, o, dir);
+  CHECK_FALSE(third.hit);
+  CHECK(third.table.at(1e5 * m_pl).action.value == first.table.at(1e5 * m_pl).action.value);
+  CHECK(cached_action_table(Prescription::probe_field, s, o, dir).hit);
+  // A table with no bubble anywhere (B infinite) survives the round trip.
+  const higgs::PolynomialPotential stable(1e10, {0, 0, 0.5, 0, 0.1});
+  TunnellingSetup none;
+  none.potential = &stable;
+  const ActionTable plain(Prescription::no_seed, none, o);
+  const ActionTable back = ActionTable::from_text(plain.to_text());
+  CHECK(back.at(1e5 * m_pl).flags.no_decay == plain.at(1e5 * m_pl).flags.no_decay);
+  std::filesystem::remove_all(dir);
 }

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include <iostream>
+#include <optional>
 #include <sstream>
 
 #include "command.hpp"
@@ -23,7 +24,8 @@ namespace u = ember::units;
 struct EvaporateOptions {
   std::string mass, lifetime, age, formed_at, today = "13.787 Gyr";
   std::string qcd_scale = "0.3 GeV", argument = "energy", cutoff = "1e3 Mpl";
-  std::string species, particles, table, trajectory;
+  std::optional<std::string> species;  // set (maybe empty) when --species is given
+  std::string particles, table, trajectory;
   bool json = false;
 };
 
@@ -35,6 +37,10 @@ struct Setup {
 Setup setup(const EvaporateOptions& o) {
   MassLossOptions options;
   options.qcd_scale = quantity_option("--qcd-scale", o.qcd_scale, u::energy);
+  // The same range the scenario key evaporation.qcd_scale allows.
+  if (!(options.qcd_scale >= 0.1 && options.qcd_scale <= 1.0))
+    throw InputError(
+        fmt::format("--qcd-scale {}: outside the allowed range; expected between 0.1 GeV and 1 GeV", o.qcd_scale));
   if (o.argument != "energy" && o.argument != "momentum")
     throw InputError(fmt::format("--greybody-argument {}: unknown; expected energy or momentum", o.argument));
   options.argument = o.argument == "momentum" ? GreybodyArgument::momentum : GreybodyArgument::energy;
@@ -42,10 +48,15 @@ Setup setup(const EvaporateOptions& o) {
   t.cutoff_mass = quantity_option("--cutoff", o.cutoff, u::mass);
   t.validate();
   ParticleSet particles = o.particles.empty() ? load_default_particles() : load_particles(o.particles);
-  if (!o.species.empty()) {
+  if (o.species) {
     std::vector<std::string> names;
     std::string name;
-    for (std::istringstream in(o.species); std::getline(in, name, ',');) names.push_back(trim(name));
+    for (std::istringstream in(*o.species + ","); std::getline(in, name, ',');) {
+      if (trim(name).empty())
+        throw InputError(
+            fmt::format("--species \"{}\": an empty name; expected names separated by commas", *o.species));
+      names.push_back(trim(name));
+    }
     particles = particles.only(names);
   }
   const greybody::Table table = o.table.empty() ? greybody::load_default_table() : greybody::load_table(o.table);
@@ -118,6 +129,17 @@ int by_mass(const EvaporateOptions& o) {
       format_real(mass / u::gram), mass, mass / u::planck_mass, hawking_temperature(mass),
       hawking_temperature(mass) / u::kelvin, ml.f(mass), alpha_cgs, ml.relative_error(), tr.lifetime() / u::second,
       tr.lifetime() / (1e9 * u::year));
+  // Semiclassical evaporation needs a hole well above the Planck mass (common practice: 1e3 M_Pl,
+  // the default cutoff); below the cutoff the whole life is the analytic tail.
+  nlohmann::ordered_json warnings = nlohmann::ordered_json::array();
+  if (mass < u::planck_mass)
+    warnings.push_back("below the Planck mass: the semiclassical Hawking rate does not apply");
+  else if (mass < 1e3 * u::planck_mass)
+    warnings.push_back("below 1e3 M_Pl: outside the semiclassical regime (common practice)");
+  if (mass <= s.trajectory.cutoff_mass)
+    warnings.push_back("at or below --cutoff: the whole life is the analytic tail with alpha at this mass");
+  j["warnings"] = warnings;
+  for (const auto& w : warnings) text += fmt::format("  warning: {}\n", w.get<std::string>());
   if (age) {
     const double left = tr.mass_at_age(*age);
     j["age_s"] = *age / u::second;

@@ -87,8 +87,9 @@ int higgs(const HiggsOptions& o) {
                 {"lambda_eff_min", r.lambda_eff_min},
                 {"lambda_eff_min_scale_GeV", r.lambda_eff_min_scale},
                 {"verdict", name_of(r.verdict)},
-                {"log10_decay_probability", optional_json(r.log10_decay_probability)},
-                {"bounce_scale_GeV", r.log10_decay_probability ? nlohmann::ordered_json(r.bounce_scale) : nullptr},
+                {"log10_expected_decays", optional_json(r.log10_expected_decays)},
+                {"bounce_scale_GeV", r.log10_expected_decays ? nlohmann::ordered_json(r.bounce_scale) : nullptr},
+                {"bounce_at_scan_edge", r.bounce_at_scan_edge},
                 {"critical_top_mass_GeV", optional_json(critical)},
                 {"prescription", r.prescription},
                 {"lambda_eff_interpolation_error", pot.interpolation_error()},
@@ -109,10 +110,13 @@ int higgs(const HiggsOptions& o) {
   text += fmt::format("lambda_eff minimum                   {:+.5f} at {:.3g} GeV\n", r.lambda_eff_min,
                       r.lambda_eff_min_scale);
   text += fmt::format("verdict                              {}\n", name_of(r.verdict));
-  text += r.log10_decay_probability
-              ? fmt::format("log10 p (unseeded, past light cone)  {:.1f} (bounce at mu = {:.3g} GeV)\n",
-                            *r.log10_decay_probability, r.bounce_scale)
-              : "log10 p (unseeded, past light cone)  none: no flat-space bounce\n";
+  text += r.log10_expected_decays
+              ? fmt::format(
+                    "log10 N (unseeded decays expected in the past light cone)  {:.1f} (bounce at mu = "
+                    "{:.3g} GeV{})\n",
+                    *r.log10_expected_decays, r.bounce_scale,
+                    r.bounce_at_scan_edge ? ", at the end of the scanned range: a lower bound" : "")
+              : "log10 N (unseeded decays expected in the past light cone)  none: no flat-space bounce\n";
   text += critical ? fmt::format("critical top mass (lambda_min = 0)   {:.3f} GeV\n", *critical)
                    : "critical top mass                    not found in [160, 185] GeV\n";
   text += fmt::format("decay prescription: {}\n", r.prescription);

@@ -5,6 +5,7 @@
 #include <iostream>
 
 #include "command.hpp"
+#include "ember/core/cache.hpp"
 #include "ember/core/errors.hpp"
 #include "ember/core/parallel.hpp"
 #include "ember/report/outputs.hpp"
@@ -15,8 +16,8 @@ namespace ember::cli {
 namespace {
 
 struct RunOptions {
-  std::string scenario, output;
-  bool json = false, no_plots = false, quiet = false;
+  std::string scenario, output, cache_dir;
+  bool json = false, no_plots = false, quiet = false, no_cache = false;
   int threads = default_threads();
 };
 
@@ -27,8 +28,14 @@ int run(const RunOptions& o) {
   scenario::JobOptions job;
   job.threads = o.threads;
   job.quiet = o.quiet;
+  if (!o.no_cache) job.cache_directory = o.cache_dir.empty() ? default_cache_directory() : o.cache_dir;
   const scenario::JobResults results = scenario::run_job(loaded.scenario, job);  // cosmology, evaporation,
                                                                                  // higgs, tunnelling, population
+  // Where the B(M) tables came from goes to stderr: it is not a result, and outputs do not depend on it.
+  if (!o.quiet && (results.tables_built + results.tables_from_cache) > 0)
+    std::cerr << fmt::format("ember: B(M) tables: {} from the cache{}, {} built\n", results.tables_from_cache,
+                             job.cache_directory ? " in " + job.cache_directory->string() : std::string(" (off)"),
+                             results.tables_built);
   const report::Written written = report::write_outputs(loaded, results, out, !o.no_plots);
   if (o.json) {
     auto j = report::summary_json(loaded, results);
@@ -56,7 +63,11 @@ Command add_run(CLI::App& parent) {
   app->add_flag("--no-plots", o->no_plots, "write the plot data but do not run scripts/plot");
   app->add_option("--threads", o->threads, "worker threads (default: the cores available); results do not depend on it")
       ->check(CLI::Range(1, 1024));
-  app->add_flag("--quiet", o->quiet, "no progress bar");
+  app->add_flag("--quiet", o->quiet, "no progress bar or cache note");
+  app->add_option("--cache-dir", o->cache_dir,
+                  "keep B(M) tables here between runs (default: $EMBER_CACHE_DIR, else $XDG_CACHE_HOME/ember, else "
+                  "~/.cache/ember)");
+  app->add_flag("--no-cache", o->no_cache, "build every B(M) table afresh and store none");
   app->add_flag("--json", o->json, "print the summary as one JSON object on stdout");
   return {app, [o] { return run(*o); }};
 }

@@ -112,4 +112,40 @@ std::string format_real(double x) {
   return tidy_exponent(fmt::format("{:.17g}", x));
 }
 
+std::string printable(std::string_view t) {
+  std::string out;
+  const auto escape = [&](unsigned char c) { out += fmt::format("\\x{:02X}", c); };
+  for (std::size_t i = 0; i < t.size();) {
+    const auto c = static_cast<unsigned char>(t[i]);
+    if (c < 0x80) {
+      if (c < 0x20 || c == 0x7F)
+        escape(c);
+      else
+        out += static_cast<char>(c);
+      ++i;
+      continue;
+    }
+    // A UTF-8 lead byte and its continuation bytes (RFC 3629: no overlong forms, <= U+10FFFF).
+    const std::size_t n = c >= 0xC2 && c <= 0xDF ? 2 : c >= 0xE0 && c <= 0xEF ? 3 : c >= 0xF0 && c <= 0xF4 ? 4 : 0;
+    bool ok = n > 0 && i + n <= t.size();
+    for (std::size_t k = 1; ok && k < n; ++k) ok = (static_cast<unsigned char>(t[i + k]) & 0xC0) == 0x80;
+    if (ok && n == 3) {
+      const auto c1 = static_cast<unsigned char>(t[i + 1]);
+      ok = !(c == 0xE0 && c1 < 0xA0) && !(c == 0xED && c1 >= 0xA0);
+    }
+    if (ok && n == 4) {
+      const auto c1 = static_cast<unsigned char>(t[i + 1]);
+      ok = !(c == 0xF0 && c1 < 0x90) && !(c == 0xF4 && c1 >= 0x90);
+    }
+    if (ok) {
+      out.append(t.substr(i, n));
+      i += n;
+    } else {
+      escape(c);
+      ++i;
+    }
+  }
+  return out;
+}
+
 }  // namespace ember

@@ -49,9 +49,9 @@ void Parameters::validate() const {
   const auto require = [](bool ok, const char* field, double v, const char* rule) {
     if (!ok) throw InputError(fmt::format("cosmology: {} = {}: {}", field, format_real(v), rule));
   };
-  require(hubble > 0.3 && hubble < 1.2, "hubble", hubble, "expected between 0.3 and 1.2");
-  require(omega_b_h2 >= 0 && omega_b_h2 < 0.1, "omega_b_h2", omega_b_h2, "expected between 0 and 0.1");
-  require(omega_cdm_h2 > 0 && omega_cdm_h2 < 0.5, "omega_cdm_h2", omega_cdm_h2, "expected between 0 and 0.5");
+  require(hubble >= 0.3 && hubble <= 1.2, "hubble", hubble, "expected between 0.3 and 1.2");
+  require(omega_b_h2 >= 0 && omega_b_h2 <= 0.1, "omega_b_h2", omega_b_h2, "expected between 0 and 0.1");
+  require(omega_cdm_h2 >= 0.001 && omega_cdm_h2 <= 0.5, "omega_cdm_h2", omega_cdm_h2, "expected between 0.001 and 0.5");
   require(cmb_temperature > 0, "cmb_temperature", cmb_temperature, "expected > 0");
   require(n_eff >= 0 && n_eff <= 10, "n_eff", n_eff, "expected between 0 and 10");
 }

@@ -33,10 +33,14 @@ Trajectory::Trajectory(const MassLoss& ml, double initial_mass, const Trajectory
   options.validate();
   if (!(initial_mass > 0) || !std::isfinite(initial_mass))
     throw InputError(fmt::format("trajectory: initial mass {} GeV; expected a finite mass > 0", initial_mass));
+  // A hole lighter than the cutoff is all analytic tail, with alpha at its own mass (not at the
+  // cutoff's, which would describe a different hole).
+  cutoff_ = std::min(cutoff_, initial_mass_);
   alpha_cut_ = ml.alpha(cutoff_);
   tail_ = cutoff_ * cutoff_ * cutoff_ / (3 * alpha_cut_);
-  if (initial_mass_ <= cutoff_) {  // all of it is the analytic tail
-    summary_.message = fmt::format("initial mass below the cutoff {:.3g} g: analytic tail only", cutoff_ / units::gram);
+  if (initial_mass_ <= options.cutoff_mass) {  // all of it is the analytic tail
+    summary_.message = fmt::format("initial mass at or below the cutoff {:.3g} g: analytic tail only",
+                                   options.cutoff_mass / units::gram);
     return;
   }
   namespace odeint = boost::numeric::odeint;

@@ -135,6 +135,10 @@ Transmission solve_transmission(const Mode& mode, double x, const SolverOptions&
   options.validate();
   if (!std::isfinite(x) || x <= 0)
     throw InputError(fmt::format("greybody: x = {}: expected a finite frequency x = G M omega / c^3 > 0", x));
+  // Gamma ~ x^(2l+2) at small x: far below 1e-20 it underflows to zero, which would read as an
+  // exact answer. The tables' low-frequency end uses the analytic limit instead.
+  if (x < 1e-20)
+    throw InputError(fmt::format("greybody: x = {:.4g}: below the solver's range; expected x >= 1e-20", x));
 
   const std::vector<double> u = inverse_power_coefficients(mode, tolerance::series_max_terms + 2);
   const double r_match = matching_radius(u, x, options.series_truncation);

@@ -2,6 +2,7 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <filesystem>
 #include <fstream>
 #include <map>
 #include <sstream>
@@ -41,6 +42,8 @@ std::vector<std::string> split_tabs(const std::string& line) {
 }  // namespace
 
 Table load_table(const std::filesystem::path& file) {
+  if (std::filesystem::is_directory(file))
+    throw InputError(fmt::format("{}: is a directory; expected a greybody table file", file.string()));
   std::ifstream in(file);
   if (!in)
     throw InputError(

@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/hash.hpp"
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
 
@@ -116,6 +117,15 @@ std::string StandardModelPotential::description() const {
           : "");
 }
 
+std::string StandardModelPotential::identity() const {
+  const Inputs& in = running_->inputs();
+  const RunOptions& ro = running_->options();
+  return fmt::format(
+      "standard_model mt {:a} mh {:a} as {:a} mw {:a} loops {} cw {} l6 {:a} l8 {:a} mu_max {:a} tol {:a} step {:a}",
+      in.top_mass, in.higgs_mass, in.alpha_s, in.w_mass, in.loops, options_.coleman_weinberg ? 1 : 0, options_.lambda6,
+      options_.lambda8, ro.mu_max, ro.relative_tolerance, ro.node_spacing);
+}
+
 // --- polynomial --------------------------------------------------------------------------------
 PolynomialPotential::PolynomialPotential(double scale, std::vector<double> coefficients)
     : scale_(scale), a_(std::move(coefficients)) {
@@ -145,6 +155,12 @@ double PolynomialPotential::curvature(double h) const {
   return scale_ * scale_ * sum;
 }
 
+std::string PolynomialPotential::identity() const {
+  std::string out = fmt::format("polynomial scale {:a}", scale_);
+  for (double a : a_) out += fmt::format(" {:a}", a);
+  return out;
+}
+
 std::string PolynomialPotential::description() const {
   std::vector<std::string> terms;
   for (double a : a_) terms.push_back(format_real(a));
@@ -161,8 +177,9 @@ TabulatedPotential::TabulatedPotential(const std::filesystem::path& file) : file
   if (!in)
     throw InputError(fmt::format("{}: cannot be read; expected a potential table (phi in GeV, V in GeV^4)", file_));
   std::vector<double> phi, v;
-  std::string line;
+  std::string line, all;
   for (int number = 1; std::getline(in, line); ++number) {
+    all += line + "\n";
     const std::string t = trim(line);
     if (t.empty() || t[0] == '#') continue;
     std::istringstream fields(t);
@@ -180,6 +197,7 @@ TabulatedPotential::TabulatedPotential(const std::filesystem::path& file) : file
   if (phi.size() < 4) throw InputError(fmt::format("{}: {} rows; expected at least 4", file_, phi.size()));
   phi_min_ = phi.front();
   phi_max_ = phi.back();
+  content_fingerprint_ = fingerprint(all);
   auto s = std::make_shared<Spline>();
   s->v = make_spline(phi, v);
   spline_ = s;
@@ -203,5 +221,8 @@ double TabulatedPotential::curvature(double h) const {
 std::string TabulatedPotential::description() const {
   return "table " + file_;
 }
-
+// Keyed on the file's content, not its path, so an edited table never reuses a stale cache entry.
+std::string TabulatedPotential::identity() const {
+  return "table " + content_fingerprint_;
+}
 }  // namespace ember::higgs

@@ -117,16 +117,17 @@ StabilityReport analyse_stability(const StandardModelPotential& pot, const Stabi
   const GridMin best = scan_min(minus_log10_p, t0, t_pl);
   if (best.value < 1e299) {
     const auto [tb, v] = refine_minimum(minus_log10_p, best.t, t0, t_pl);
-    r.log10_decay_probability = -v;
+    r.log10_expected_decays = -v;
     r.bounce_scale = std::exp(tb);
+    r.bounce_at_scan_edge = tb - t0 < 2 * grid_step || t_pl - tb < 2 * grid_step;
   }
-  r.verdict = !deeper                                                          ? Verdict::stable
-              : (r.log10_decay_probability && *r.log10_decay_probability >= 0) ? Verdict::unstable
-                                                                               : Verdict::metastable;
+  r.verdict = !deeper                                                      ? Verdict::stable
+              : (r.log10_expected_decays && *r.log10_expected_decays >= 0) ? Verdict::unstable
+                                                                           : Verdict::metastable;
   r.prescription =
       "flat-space Fubini bounce, S = 8 pi^2 / (3 |q(mu)|) with the MS-bar quartic at mu = 1/R plus the "
       "Planck-suppressed "
-      "operators at h = mu; p = max_mu (mu/H0)^4 e^{-S}";
+      "operators at h = mu; expected decays N = max_mu (mu/H0)^4 e^{-S}";
   return r;
 }
 

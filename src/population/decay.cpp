@@ -39,7 +39,9 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
   Decay d;
   const evaporation::Trajectory tr(ml, formation.mass, topt);
   const double available = b.age() - formation.time;  // time from formation to today
-  const double floor = std::max(table.floor(), topt.cutoff_mass);
+  // The hazard runs down to the semiclassical floor: the trajectory's cutoff_mass only decides
+  // where its integration hands over to the analytic tail, never where the hazard stops.
+  const double floor = table.floor();
   d.evaporated = tr.lifetime() <= available;
   d.lifetime = tr.lifetime();
   d.end_mass = d.evaporated ? floor : std::max(floor, tr.mass_at_age(available));

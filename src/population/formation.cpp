@@ -35,6 +35,12 @@ Formation formation_of(double mass, double gamma, const cosmology::Background& b
   return f;
 }
 
+MassRange formable_masses(double gamma, const cosmology::Background& b) {
+  // Nudged inwards so the ends themselves pass formation_of's bisection bounds.
+  return {gamma * b.horizon_mass(b.time(b.scale_factor_at_temperature(1e19))) * (1 + 1e-9),
+          gamma * b.horizon_mass(b.age()) * (1 - 1e-9)};
+}
+
 double comoving_number_per_beta(const Formation& f) {
   return f.total_density * std::pow(f.scale_factor, 3) / f.mass;
 }

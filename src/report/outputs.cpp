@@ -188,7 +188,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
                   {"lambda_min", st.lambda_min},
                   {"lambda_min_scale_GeV", st.lambda_min_scale}};
     j["unseeded_baseline"] = {
-        {"log10_decay_probability", number_or_null(st.log10_decay_probability)},
+        {"log10_expected_decays", number_or_null(st.log10_expected_decays)},
         {"note", "flat-space decay of our past light cone with no black holes: " + st.prescription}};
   }
   j["no_constraint"] = r.no_constraint;
@@ -222,7 +222,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
                     {"lambda8", b.point.lambda8},
                     {"verdict", higgs::name_of(b.verdict)},
                     {"constraint", b.constraint},
-                    {"log10_unseeded_decay_probability", number_or_null(b.log10_unseeded)}});
+                    {"log10_unseeded_expected_decays", number_or_null(b.log10_unseeded)}});
   j["band"] = band;
   j["survivors"] = {{"mass_g", r.survivors_mass / u::gram},
                     {"note",
@@ -237,13 +237,13 @@ std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobR
                               l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, hash_of(l),
                               r.spectrum, r.potential);
   if (r.stability)
-    t += fmt::format("  Higgs vacuum: {}{}; unseeded decay of the past light cone: log10 p = {}\n",
+    t += fmt::format("  Higgs vacuum: {}{}; unseeded decays expected in the past light cone: log10 N = {}\n",
                      higgs::name_of(r.stability->verdict),
                      r.stability->instability_scale
                          ? fmt::format(", instability at {:.3g} GeV", *r.stability->instability_scale)
                          : "",
-                     r.stability->log10_decay_probability ? fmt::format("{:.1f}", *r.stability->log10_decay_probability)
-                                                          : std::string("none"));
+                     r.stability->log10_expected_decays ? fmt::format("{:.1f}", *r.stability->log10_expected_decays)
+                                                        : std::string("none"));
   if (r.no_constraint) t += fmt::format("  no constraint: {}\n", r.no_constraint_reason);
   t += fmt::format("  {:<14} {:>14} {:>16}  {}\n", "prescription", "N_lightcone", "survival e^-N", "verdict");
   for (const auto& o : r.outcomes)

@@ -10,6 +10,7 @@
 #include "ember/core/parallel.hpp"
 #include "ember/core/progress.hpp"
 #include "ember/greybody/table.hpp"
+#include "ember/tunnelling/action_cache.hpp"
 #include "ember/tunnelling/landscape.hpp"
 
 namespace ember::scenario {
@@ -159,6 +160,15 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     lo = std::min(lo, row_spectra.back()->low());
     hi = std::max(hi, row_spectra.back()->high());
   }
+  // A wide spectrum's tails can reach masses that cannot form (before T = 1e19 GeV or after
+  // today): no holes form there, so the integrals stop at the formable range.
+  const population::MassRange formable = population::formable_masses(s.population.collapse_fraction, background);
+  if (lo < formable.low || hi > formable.high) {
+    out.spectrum += fmt::format(" (integrated over the formable masses {:.3g} g to {:.3g} g only)",
+                                std::max(lo, formable.low) / units::gram, std::min(hi, formable.high) / units::gram);
+    lo = std::max(lo, formable.low);
+    hi = std::min(hi, formable.high);
+  }
 
   population::ResponseContext context;
   context.background = &background;
@@ -190,6 +200,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     std::vector<population::Response> scan;
     population::Counts counts;
     std::string table_summary;
+    std::optional<bool> cache_hit;  // set when a table was needed
     std::vector<double> plot_ratio;
   };
   std::vector<Unit> units(points.size() * n_presc);
@@ -212,7 +223,10 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
         setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
       setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
       setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
-      const tunnelling::ActionTable table(p, setup, table_options);
+      const tunnelling::CachedTable cached =
+          tunnelling::cached_action_table(p, setup, table_options, o.cache_directory);
+      const tunnelling::ActionTable& table = cached.table;
+      unit.cache_hit = cached.hit;
       std::vector<population::Response> grid;
       if (!base->monochromatic()) grid = population::response_grid(lo, hi, o.responses_per_decade, table, context);
       for (std::size_t r = 0; r < rows.size(); ++r) {
@@ -261,9 +275,10 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   for (std::size_t point = 0; point < points.size(); ++point) {
     const PointModel& model = models[point];
     BandPoint bp{points[point], model.stability ? model.stability->verdict : higgs::Verdict::metastable, false,
-                 model.stability ? model.stability->log10_decay_probability : std::nullopt};
+                 model.stability ? model.stability->log10_expected_decays : std::nullopt};
     for (std::size_t k = 0; k < n_presc; ++k) {
       const Unit& unit = units[point * n_presc + k];
+      if (unit.cache_hit) ++(*unit.cache_hit ? out.tables_from_cache : out.tables_built);
       for (std::size_t r = 0; r < rows.size(); ++r) {
         band_values[k][r].push_back(unit.beta_max[r]);
         bp.constraint |= unit.beta_max[r].has_value();

@@ -65,8 +65,8 @@ class Resolver {
     d.file = context_.file_label;
     d.line = at.mark.is_null() ? 1 : at.mark.line + 1;
     d.column = at.mark.is_null() ? 1 : at.mark.column + 1;
-    d.path = path.empty() ? "(document)" : path;
-    d.problem = std::move(problem);
+    d.path = path.empty() ? "(document)" : printable(path);
+    d.problem = printable(problem);
     d.expected = std::move(expected);
     errors_.push_back(std::move(d));
   }

@@ -24,6 +24,12 @@ namespace ember::scenario {
 
 namespace {
 
+// Formation masses, in g: a hole forms at gamma M_H, after T = 1e19 GeV (the top of the background
+// table; gamma M_H < 1e-6 g there even for gamma = 1) and before today (gamma M_H ~ 1e55 g).
+Range formable() {
+  return between(1e-6, 1e50);
+}
+
 using units::Sign;
 
 Key population() {
@@ -32,22 +38,22 @@ Key population() {
              {
                  {"monochromatic",
                   "every hole forms with one mass",
-                  {required(quantity("mass", "formation mass", units::mass, "g", std::nullopt, above(0)), "1e12 g")}},
+                  {required(quantity("mass", "formation mass", units::mass, "g", std::nullopt, formable()), "1e12 g")}},
                  {"lognormal",
                   "psi = f / (sqrt(2 pi) width M) exp(-ln^2(M/peak_mass) / (2 width^2))",
                   {required(quantity("peak_mass", "the mass M_c at the peak of M psi(M)", units::mass, "g",
-                                     std::nullopt, above(0)),
+                                     std::nullopt, formable()),
                             "1e20 g"),
                    required(number("width", "the width sigma in ln M", std::nullopt, between(0.01, 10)), "0.5")}},
                  {"power_law",
                   "psi ~ M^exponent between two cutoffs (scale-invariant radiation-era collapse)",
-                  {required(quantity("min_mass", "lower cutoff", units::mass, "g", std::nullopt, above(0)), "1e9 g"),
-                   required(quantity("max_mass", "upper cutoff", units::mass, "g", std::nullopt, above(0)), "1e15 g"),
+                  {required(quantity("min_mass", "lower cutoff", units::mass, "g", std::nullopt, formable()), "1e9 g"),
+                   required(quantity("max_mass", "upper cutoff", units::mass, "g", std::nullopt, formable()), "1e15 g"),
                    number("exponent", "power of M in psi; -3/2 for a radiation era", "-1.5", between(-10, 10))}},
                  {"critical_collapse",
                   "psi ~ M^exponent exp(-(M/cutoff_mass)^exponent)",
                   {required(quantity("cutoff_mass", "the mass M_f where the exponential cut sets in", units::mass, "g",
-                                     std::nullopt, above(0)),
+                                     std::nullopt, formable()),
                             "1e12 g"),
                    number("exponent", "power of the rise and of the cut", "2.85", above_up_to(0, 20))}},
                  {"table",
@@ -175,8 +181,8 @@ Key band_axis(std::string name, std::string meaning, Key sigma) {
 Key scan() {
   const higgs::MeasuredInputs& m = higgs::measured_inputs();
   Key masses = ordered(section("masses", "grid of formation (or characteristic) masses, logarithmic",
-                               {quantity("from", "lowest mass", units::mass, "g", "1 g", above(0)),
-                                quantity("to", "highest mass", units::mass, "g", "1e15 g", above(0)),
+                               {quantity("from", "lowest mass", units::mass, "g", "1 g", formable()),
+                                quantity("to", "highest mass", units::mass, "g", "1e15 g", formable()),
                                 integer("points", "number of masses", "61", between(1, 100000))}),
                        {{"from", "to", false}});
   Key band = section(

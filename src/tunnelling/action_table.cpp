@@ -4,8 +4,10 @@
 #include <gsl/gsl_interp.h>
 
 #include <algorithm>
+#include <charconv>
 #include <chrono>
 #include <cmath>
+#include <sstream>
 
 #include "ember/core/errors.hpp"
 
@@ -55,6 +57,7 @@ ActionPoint solve_node(Prescription p, const TunnellingSetup& s, double mass) {
     a.action = {k * sol.mass_shift.value, k * sol.mass_shift.error};
     a.phi_horizon = sol.phi_horizon;
     a.flags.resolution_limit = sol.at_resolution_limit;
+    a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
     a.note = sol.summary.message;
   } catch (const NumericalError& e) {
     if (e.solver() != "static instanton shooting") throw;
@@ -82,6 +85,26 @@ ActionTable::ActionTable(Prescription p, const TunnellingSetup& s, const ActionT
   const double lo = std::log(floor_), hi = std::log(top_);
   for (int i = 0; i < o.points; ++i) nodes_.push_back(solve_node(p, s, std::exp(lo + (hi - lo) * i / (o.points - 1))));
 
+  build_branches();
+
+  // Interpolation error at midpoints, as an absolute error in B.
+  for (int i = 0; i + 1 < o.points; i += o.midpoint_stride) {
+    const double mid = std::exp(lo + (hi - lo) * (i + 0.5) / (o.points - 1));
+    const ActionPoint direct = solve_node(p, s, mid);
+    if (direct.flags.no_decay) continue;
+    const ActionPoint looked = interpolate(direct.seed_mass);
+    if (looked.flags.no_decay) continue;
+    summary_.interpolation_error =
+        std::max(summary_.interpolation_error,
+                 std::abs(looked.action.value - direct.action.value) / std::max(direct.action.value, 1.0));
+    ++summary_.checks;
+  }
+  summary_.nodes = static_cast<int>(nodes_.size());
+  summary_.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+  set_message();
+}
+
+void ActionTable::build_branches() {
   // Branches: maximal runs of finite B with increasing seed mass.
   auto branch = std::make_shared<Branch>();
   const auto close_branch = [&] {
@@ -104,25 +127,13 @@ ActionTable::ActionTable(Prescription p, const TunnellingSetup& s, const ActionT
     branch->index.push_back(i);
   }
   close_branch();
+}
 
-  // Interpolation error at midpoints, as an absolute error in B.
-  for (int i = 0; i + 1 < o.points; i += o.midpoint_stride) {
-    const double mid = std::exp(lo + (hi - lo) * (i + 0.5) / (o.points - 1));
-    const ActionPoint direct = solve_node(p, s, mid);
-    if (direct.flags.no_decay) continue;
-    const ActionPoint looked = interpolate(direct.seed_mass);
-    if (looked.flags.no_decay) continue;
-    summary_.interpolation_error =
-        std::max(summary_.interpolation_error,
-                 std::abs(looked.action.value - direct.action.value) / std::max(direct.action.value, 1.0));
-    ++summary_.checks;
-  }
-  summary_.nodes = static_cast<int>(nodes_.size());
-  summary_.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+void ActionTable::set_message() {
   summary_.message = fmt::format(
       "{}: {} nodes from {:.3g} to {:.3g} M_Pl, {} branch{}, interpolation error in B "
       "{:.2g} of max(B, 1) ({} checks)",
-      name_of(p), summary_.nodes, floor_ / units::planck_mass, top_ / units::planck_mass, branches_.size(),
+      name_of(prescription_), summary_.nodes, floor_ / units::planck_mass, top_ / units::planck_mass, branches_.size(),
       branches_.size() == 1 ? "" : "es", summary_.interpolation_error, summary_.checks);
 }
 
@@ -173,6 +184,106 @@ ActionPoint ActionTable::at(double seed) const {
   }
   if (!a.flags.no_decay) a.action.error += summary_.interpolation_error * std::max(a.action.value, 1.0);
   return a;
+}
+
+}  // namespace ember::tunnelling
+
+namespace ember::tunnelling {
+
+namespace {
+
+std::string hex(double x) {
+  return fmt::format("{:a}", x);
+}
+
+double unhex(const std::string& text) {
+  double x = 0;
+  const char* b = text.data();
+  const char* e = b + text.size();
+  const bool negative = !text.empty() && text[0] == '-';
+  std::string_view body(b + (negative ? 1 : 0), static_cast<std::size_t>(e - b) - (negative ? 1 : 0));
+  if (body.size() > 2 && body[0] == '0' && (body[1] == 'x' || body[1] == 'X')) body.remove_prefix(2);
+  const auto [end, ec] = std::from_chars(body.data(), body.data() + body.size(), x, std::chars_format::hex);
+  if (ec != std::errc{} || end != body.data() + body.size())
+    throw InputError(
+        fmt::format("B(M) table text: \"{}\" is not a hex float; expected the format to_text writes", text));
+  return negative ? -x : x;
+}
+
+unsigned flag_bits(const Flags& f) {
+  return (f.below_floor ? 1u : 0u) | (f.fallback ? 2u : 0u) | (f.resolution_limit ? 4u : 0u) |
+         (f.several_branches ? 8u : 0u) | (f.near_branch_point ? 16u : 0u) | (f.outside_running ? 32u : 0u) |
+         (f.no_decay ? 64u : 0u) | (f.beyond_table ? 128u : 0u) | (f.unconverged ? 256u : 0u);
+}
+
+Flags flags_of(unsigned b) {
+  Flags f;
+  f.below_floor = b & 1u;
+  f.fallback = b & 2u;
+  f.resolution_limit = b & 4u;
+  f.several_branches = b & 8u;
+  f.near_branch_point = b & 16u;
+  f.outside_running = b & 32u;
+  f.no_decay = b & 64u;
+  f.beyond_table = b & 128u;
+  f.unconverged = b & 256u;
+  return f;
+}
+
+}  // namespace
+
+std::string ActionTable::to_text() const {
+  std::string out = fmt::format(
+      "ember-action-table 1\nprescription {}\nfloor {}\ntop {}\ninterpolation_error {}\nchecks {}\nnodes {}\n",
+      name_of(prescription_), hex(floor_), hex(top_), hex(summary_.interpolation_error), summary_.checks,
+      nodes_.size());
+  for (const auto& n : nodes_)
+    out += fmt::format("{} {} {} {} {} {} {} {}\n", hex(n.seed_mass), hex(n.action.value), hex(n.action.error),
+                       hex(n.remnant_mass), hex(n.phi_horizon), n.own_prefactor ? 1 : 0,
+                       hex(n.own_prefactor.value_or(0.0)), flag_bits(n.flags));
+  return out;
+}
+
+ActionTable ActionTable::from_text(const std::string& text) {
+  std::istringstream in(text);
+  std::string word, value;
+  int version = 0;
+  in >> word >> version;
+  if (word != "ember-action-table" || version != 1)
+    throw InputError("B(M) table text: not an ember-action-table version 1; expected the format to_text writes");
+  ActionTable t;
+  const auto field = [&](const char* name) {
+    in >> word >> value;
+    if (word != name) throw InputError(fmt::format("B(M) table text: \"{}\" where \"{}\" was expected", word, name));
+    return value;
+  };
+  const auto p = prescription_named(field("prescription"));
+  if (!p) throw InputError("B(M) table text: unknown prescription");
+  t.prescription_ = *p;
+  t.floor_ = unhex(field("floor"));
+  t.top_ = unhex(field("top"));
+  t.summary_.interpolation_error = unhex(field("interpolation_error"));
+  t.summary_.checks = std::stoi(field("checks"));
+  const int n = std::stoi(field("nodes"));
+  for (int i = 0; i < n; ++i) {
+    std::string seed, b, err, remnant, phi, prefactor;
+    int has = 0;
+    unsigned flags = 0;
+    if (!(in >> seed >> b >> err >> remnant >> phi >> has >> prefactor >> flags))
+      throw InputError(fmt::format("B(M) table text: node {} of {} is incomplete", i + 1, n));
+    ActionPoint a;
+    a.seed_mass = unhex(seed);
+    a.action = {unhex(b), unhex(err)};
+    a.remnant_mass = unhex(remnant);
+    a.phi_horizon = unhex(phi);
+    if (has) a.own_prefactor = unhex(prefactor);
+    a.flags = flags_of(flags);
+    t.nodes_.push_back(a);
+  }
+  t.summary_.nodes = n;
+  t.build_branches();
+  t.set_message();
+  return t;
 }
 
 }  // namespace ember::tunnelling

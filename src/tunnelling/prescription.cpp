@@ -59,6 +59,7 @@ std::vector<std::string> Flags::list() const {
   if (outside_running) out.emplace_back("outside_running_range");
   if (no_decay) out.emplace_back("no_decay");
   if (beyond_table) out.emplace_back("beyond_table");
+  if (unconverged) out.emplace_back("unconverged");
   return out;
 }
 
@@ -71,6 +72,7 @@ Flags& Flags::operator|=(const Flags& o) {
   outside_running |= o.outside_running;
   no_decay |= o.no_decay;
   beyond_table |= o.beyond_table;
+  unconverged |= o.unconverged;
   return *this;
 }
 
@@ -178,6 +180,7 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
   }
   if (a.remnant_mass == sol.remnant_mass) a.phi_horizon = sol.phi_horizon;
   a.flags.resolution_limit = sol.at_resolution_limit;
+  a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
   a.note = sol.summary.message;
   return a;
 }
@@ -193,6 +196,7 @@ ActionPoint probe_field(const TunnellingSetup& s, double seed) {
     a.action = sol.action;
     a.phi_horizon = sol.phi_horizon;
     a.flags.resolution_limit = sol.at_resolution_limit;
+    a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
     a.note = sol.summary.message;
   } catch (const NumericalError& e) {
     if (!is_no_solution(e)) throw;
@@ -232,6 +236,7 @@ ActionPoint hot_bubble(const TunnellingSetup& s, double seed) {
   a.own_prefactor =
       s.hot_bubble_volume * horizon_volume(s, seed) * std::pow(t, 4) * std::pow(a.action.value / (2 * pi), 1.5);
   a.flags.outside_running = t > run.mu_max() || t < run.mu_min();
+  a.flags.unconverged = b.summary.status != BounceStatus::converged;
   a.note = fmt::format("T_H = {:.4g} GeV; {}", t, b.summary.message);
   return a;
 }
@@ -271,6 +276,7 @@ ActionPoint no_seed(const TunnellingSetup& s, double seed) {
   }
   a.action = b.action;
   a.own_prefactor = horizon_volume(s, seed) / std::pow(b.wall_radius, 4);
+  a.flags.unconverged = b.summary.status != BounceStatus::converged;
   a.note = b.summary.message;
   return a;
 }

@@ -184,9 +184,16 @@ StaticSolution solve_static(const higgs::Potential& pot, double mass, const Stat
   const double r_h = 2 * o.newton_G * mass;
   Shooter sh{pot, r_h, o.back_reaction ? o.newton_G : 0.0, o.relative_tolerance, L.barrier_top};
 
-  // Bracket ln phi_h: the escape point undershoots; go up until a shot overshoots.
+  // Bracket ln phi_h: the escape point should undershoot; go up until a shot overshoots.
   double s_under = std::log(L.escape), s_over = s_under;
   const double s_top = std::log(L.true_minimum ? *L.true_minimum : pot.field_max());
+  // For very heavy holes (about 1e13 M_Pl in the Standard Model) even the escape point overshoots
+  // and there is nothing to bracket: say so rather than bisect onto a wrong end.
+  if (sh.shoot(s_under).kind == Shot::overshoot)
+    throw NumericalError("static instanton shooting",
+                         fmt::format("phi_h at the escape point {:.4g} GeV already overshoots around M = {:.4g} GeV "
+                                     "({:.4g} M_Pl): the static bubble is not bracketed",
+                                     L.escape, mass, mass / units::planck_mass));
   for (int i = 0;; ++i) {
     s_over = std::min(s_over + 0.5, s_top - 1e-12);
     if (sh.shoot(s_over).kind == Shot::overshoot) break;
@@ -245,6 +252,11 @@ StaticSolution solve_static(const higgs::Potential& pot, double mass, const Stat
     out.action = {k * out.mass_shift.value, k * out.mass_shift.error};
   }
   if (o.direct_action && o.back_reaction) out.direct_action = sh.direct_action(s_under, out.mass_shift.value);
+  if (!(out.action.value > 0) || !std::isfinite(out.action.value) || !std::isfinite(out.action.error))
+    throw NumericalError("static instanton shooting",
+                         fmt::format("B = {:.6g} +- {:.2g} around M = {:.4g} M_Pl (phi_h = {:.4g} GeV): expected a "
+                                     "finite B > 0",
+                                     out.action.value, out.action.error, mass / units::planck_mass, out.phi_horizon));
   out.summary.bisections = n;
   out.summary.rhs_evaluations = sh.evaluations;
   const double rel_err = std::abs(out.action.error / out.action.value);

@@ -16,4 +16,8 @@ std::string ThermalPotential::description() const {
   return fmt::format("{} + thermal mass m^2 = {:.4g} GeV^2", base_.description(), m2_);
 }
 
+std::string ThermalPotential::identity() const {
+  return fmt::format("{} thermal {:a}", base_.identity(), m2_);
+}
+
 }  // namespace ember::tunnelling

@@ -6,6 +6,8 @@ ember=$1
 src=$2
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
+# B(M) tables are cached between runs: keep this test's cache out of the user's.
+export EMBER_CACHE_DIR="$work/cache"
 failures=0
 
 fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
@@ -143,6 +145,11 @@ run "evaporate bad particles" 2 -- "$ember" evaporate --mass 1e15g --particles "
 stderr_has "evaporate bad particles" "bad_spin.yaml:2:39:"
 run "evaporate low cutoff" 2 -- "$ember" evaporate --mass 1e15g --cutoff "0.1 Mpl"
 stderr_has "evaporate low cutoff" "cutoff_mass"
+run "evaporate qcd scale out of range" 2 -- "$ember" evaporate --mass 1e15g --qcd-scale "1e30 GeV"
+stderr_has "evaporate qcd scale out of range" "between 0.1 GeV and 1 GeV"
+run "evaporate empty species" 2 -- "$ember" evaporate --mass 1e15g --species ""
+run "evaporate sub-Planck" 0 -- "$ember" evaporate --mass "1e-5 g"
+stdout_has "evaporate sub-Planck" "warning: below the Planck mass"
 run "evaporate unreachable lifetime" 2 -- "$ember" evaporate --lifetime "1e-80 s"
 run "evaporate unwritable trajectory" 2 -- "$ember" evaporate --mass 1e15g --trajectory "$src/configs"
 stdout_empty "evaporate unwritable trajectory"
@@ -164,6 +171,9 @@ stderr_has "higgs bad loops" "loops"
 run "higgs bad at" 2 -- "$ember" higgs --at "1e-23 s"
 stderr_has "higgs bad at" "--at"
 run "higgs top out of range" 2 -- "$ember" higgs --mt 300
+run "higgs heavy top" 0 -- "$ember" higgs --mt 185
+stdout_has "higgs heavy top" "log10 N (unseeded decays expected"
+stdout_has "higgs heavy top" "a lower bound"
 
 # --- bounce ---------------------------------------------------------------------------------------
 run "bounce seed" 0 -- "$ember" bounce --seed-mass "1e5 Mpl" --json
@@ -176,6 +186,13 @@ run "bounce scan" 0 -- "$ember" bounce --scan "1e3 Mpl" "1e7 Mpl" 5 --prescripti
 grep -q '^seed_mass_Mpl,seed_mass_g,B_probe_field,branching_probe_field,flags_probe_field$' "$work/scan.csv" || fail "bounce --scan: no column line"
 [[ $(grep -vc '^#' "$work/scan.csv") == 6 ]] || fail "bounce --scan: expected 5 rows and the column line"
 grep -qiE 'nan|inf' "$work/scan.csv" && fail "bounce --scan: NaN or inf in the CSV"
+# Heavy seeds, where the static solver once returned B < 0 and NaN rates (found in review): the
+# points fall back, flagged, and stay finite.
+run "bounce heavy scan" 0 -- "$ember" bounce --scan "1e11 Mpl" "1e15 Mpl" 5 --prescriptions entropy_drop --output "$work/heavy.csv"
+grep -qiE 'nan|inf|,-' "$work/heavy.csv" && fail "bounce heavy scan: NaN, inf or a negative value in the CSV"
+grep -q 'no_static_solution_fallback' "$work/heavy.csv" || fail "bounce heavy scan: no fallback flag"
+run "bounce heavy seed" 0 -- "$ember" bounce --seed-mass "1e20 Mpl"
+grep -qiwE 'nan|inf' "$work/out" && fail "bounce heavy seed: NaN in the text"
 run "bounce thin wall" 0 -- "$ember" bounce --model thin_wall --tension "1e33 GeV^3" --energy-gap "2e45 GeV^4" --seed-mass "1e4 Mpl" --json
 cp "$work/out" "$work/thin.json"
 run "bounce below floor" 0 -- "$ember" bounce --seed-mass "10 Mpl" --prescriptions probe_field --json
@@ -193,6 +210,7 @@ run "run demo" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run"
 stdout_has "run demo" "EXCLUDED"
 stdout_has "run demo" "caution: The constraint disappears if new physics stabilises"
 stdout_has "run demo" "semiclassical floor"
+stderr_has "run demo" "0 from the cache in $work/cache"
 for f in summary.json constraint.csv decay.csv resolved.yaml rates.csv potential.csv; do
   [[ -s "$work/run/$f" ]] || fail "run demo: no $f"
 done
@@ -206,16 +224,34 @@ if /usr/bin/python3 -c 'import matplotlib' 2>/dev/null; then
   done
 fi
 ls -a "$work/run" | grep -q '\.tmp\.' && fail "run demo: temporary file left behind"
-run "run json" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run2" --json --no-plots --threads 1
+run "run json" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run2" --json --no-plots --threads 1 --no-cache
 
 json_ok "run json"
 # The same files whatever the thread count (summary.json differs only in its timing).
-run "run two threads" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run3" --no-plots --threads 2 --quiet
-for f in constraint.csv decay.csv rates.csv potential.csv resolved.yaml; do
-  cmp -s "$work/run2/$f" "$work/run3/$f" || fail "run: $f differs between 1 and 2 threads"
-done
-diff <(grep -v '"seconds"' "$work/run2/summary.json") <(grep -v '"seconds"' "$work/run3/summary.json") >/dev/null ||
-  fail "run: summary.json differs between 1 and 2 threads beyond timing"
+run "run two threads" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run3" --no-plots --threads 2 --quiet --no-cache
+# same_results NAME DIR: DIR holds the files of run2 (summary.json differing only in its timing).
+same_results() {
+  for f in constraint.csv decay.csv rates.csv potential.csv resolved.yaml; do
+    cmp -s "$work/run2/$f" "$2/$f" || fail "$1: $f differs from the uncached single-thread run"
+  done
+  diff <(grep -v '"seconds"' "$work/run2/summary.json") <(grep -v '"seconds"' "$2/summary.json") >/dev/null ||
+    fail "$1: summary.json differs beyond timing"
+}
+same_results "run two threads" "$work/run3"
+# The cache: a second run reads every table and gives the same bytes; a damaged entry is rebuilt;
+# a changed input misses.
+[[ $(ls "$work/cache" | wc -l) -ge 4 ]] || fail "cache: expected the first run's tables in $work/cache"
+run "run cached" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run4" --no-plots
+stderr_has "run cached" ", 0 built"
+same_results "run cached" "$work/run4"
+for f in "$work/cache"/*; do sed -i '5s/0x1/0x3/' "$f"; done
+run "run damaged cache" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run5" --no-plots
+stderr_has "run damaged cache" "0 from the cache"
+same_results "run damaged cache" "$work/run5"
+sed -e 's/top_mass: 172.57 GeV/top_mass: 172.0 GeV/' "$work/demo-small.yaml" >"$work/demo-top.yaml"
+grep -q 'top_mass: 172.0 GeV' "$work/demo-top.yaml" || fail "cache: the test scenario has no top_mass line to change"
+run "run changed input" 0 -- "$ember" run "$work/demo-top.yaml" -o "$work/run6" --no-plots
+stderr_has "run changed input" "0 from the cache"
 run "run bad scenario" 2 -- "$ember" run "$src/tests/data/bad/unknown_key.yaml" -o "$work/never-run"
 [[ -e "$work/never-run" ]] && fail "run bad scenario: wrote output"
 run "run unwritable folder" 2 -- "$ember" run "$work/demo-small.yaml" -o "$src/configs/demo.yaml" --no-plots
@@ -272,7 +308,7 @@ if abs(f - 1) > 0.03:
     bad += 1
 h = json.loads((work / "higgs.json").read_text())
 for key in ("lambda_at", "lambda_eff_at", "instability_scale_GeV", "lambda_min", "lambda_min_scale_GeV", "verdict",
-            "log10_decay_probability", "critical_top_mass_GeV"):
+            "log10_expected_decays", "critical_top_mass_GeV"):
     if key not in h:
         print(f"FAIL: higgs --json lacks {key}")
         bad += 1
@@ -281,7 +317,7 @@ if abs(h["lambda_at"] + 0.0143) > 0.0005:
     print(f"FAIL: lambda(M_Pl) = {h['lambda_at']}, not -0.0143")
     bad += 1
 st = json.loads((work / "higgs_stable.json").read_text())
-if st["verdict"] != "stable" or st["instability_scale_GeV"] is not None or st["log10_decay_probability"] is not None:
+if st["verdict"] != "stable" or st["instability_scale_GeV"] is not None or st["log10_expected_decays"] is not None:
     print(f"FAIL: M_t = 168 GeV should be stable with no instability scale: {st['verdict']}")
     bad += 1
 b = json.loads((work / "bounce.json").read_text())

@@ -7,5 +7,7 @@ namespace ember::embedded {
 
 std::string_view standard_model_yaml();  // data/standard_model.yaml
 std::string_view cosmology_yaml();       // data/cosmology.yaml
+// 16 hex digits over the sources and data a cached B(M) table depends on (see CMakeLists.txt).
+std::string_view numerics_fingerprint();
 
 }  // namespace ember::embedded

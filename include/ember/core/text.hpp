@@ -20,6 +20,10 @@ std::string join_alternatives(const std::vector<std::string>& items, std::string
 
 std::string trim(std::string_view text);
 
+// The text with control characters and bytes that are not valid UTF-8 written as \xNN, so a
+// message quoting user input never puts raw bytes on the terminal.
+std::string printable(std::string_view text);
+
 // Strict, locale-independent number parsing of the whole text: a finite double, or a whole
 // number. A leading '+' is accepted. Anything else gives nullopt.
 std::optional<double> parse_real(std::string_view text);

@@ -22,6 +22,9 @@ class Potential {
   virtual double curvature(double h) const = 0;  // d^2V/dh^2
   virtual double field_max() const = 0;          // the largest field where V is defined
   virtual std::string description() const = 0;
+  // Every parameter the potential depends on, exactly (hex floats, file fingerprints): equal
+  // identities mean equal potentials. Used to key cached tables.
+  virtual std::string identity() const = 0;
   // 4 V / h^4: the quartic a pure h^4 potential would need to match V at h.
   double quartic(double h) const;
 };
@@ -50,6 +53,7 @@ class StandardModelPotential final : public Potential {
   double curvature(double h) const override;
   double field_max() const override { return running_->mu_max(); }
   std::string description() const override;
+  std::string identity() const override;
 
   const Running& running() const { return *running_; }
   const StandardModelOptions& options() const { return options_; }
@@ -74,6 +78,7 @@ class PolynomialPotential final : public Potential {
   double curvature(double h) const override;
   double field_max() const override { return 1e6 * scale_; }
   std::string description() const override;
+  std::string identity() const override;
 
  private:
   double scale_;
@@ -90,11 +95,12 @@ class TabulatedPotential final : public Potential {
   double curvature(double h) const override;
   double field_max() const override { return phi_max_; }
   std::string description() const override;
+  std::string identity() const override;
 
   struct Spline;
 
  private:
-  std::string file_;
+  std::string file_, content_fingerprint_;
   double phi_min_ = 0, phi_max_ = 0;
   std::shared_ptr<const Spline> spline_;
   double checked(double h) const;

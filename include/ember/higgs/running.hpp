@@ -47,6 +47,7 @@ class Running {
   double mu_min() const { return inputs_.top_mass; }
   double mu_max() const { return options_.mu_max; }
   const Inputs& inputs() const { return inputs_; }
+  const RunOptions& options() const { return options_; }
   const RunSummary& summary() const { return summary_; }
 
   struct Splines;

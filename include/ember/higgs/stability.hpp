@@ -38,9 +38,13 @@ struct StabilityReport {
   double lambda_min = 0, lambda_min_scale = 0;          // MS-bar lambda(mu), mu in [M_t, M_Pl]
   double lambda_eff_min = 0, lambda_eff_min_scale = 0;  // lambda_eff(h), h in [M_t, mu_max]
   Verdict verdict = Verdict::stable;
-  std::optional<double> log10_decay_probability;  // none when no flat-space bounce exists
-  double bounce_scale = 0;                        // the mu = 1/R that maximises p
-  std::string prescription;                       // the decay prescription, in words
+  // log10 of the expected number N of unseeded decays in the past light cone (N, not a
+  // probability: it exceeds 1 when the vacuum would not have survived); none when no flat-space
+  // bounce exists.
+  std::optional<double> log10_expected_decays;
+  double bounce_scale = 0;           // the mu = 1/R that maximises N
+  bool bounce_at_scan_edge = false;  // the maximum sits at an end of the mu range: N is a lower bound
+  std::string prescription;          // the decay prescription, in words
 };
 
 StabilityReport analyse_stability(const StandardModelPotential& potential, const StabilityOptions& options = {});

@@ -28,6 +28,12 @@ struct Formation {
 // after today.
 Formation formation_of(double mass, double collapse_fraction, const cosmology::Background& background);
 
+// The formation masses formation_of accepts (GeV): gamma M_H at T = 1e19 GeV, and gamma M_H today.
+struct MassRange {
+  double low = 0, high = 0;
+};
+MassRange formable_masses(double collapse_fraction, const cosmology::Background& background);
+
 double comoving_number_per_beta(const Formation& f);  // n a^3 / beta, GeV^3
 double f_pbh_per_beta(const Formation& f, const cosmology::Background& b);
 double lightcone_count_per_beta(const Formation& f, const cosmology::Background& b);

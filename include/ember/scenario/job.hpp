@@ -5,6 +5,7 @@
 // Units: internal natural units throughout (GeV, GeV^-1); the report converts.
 #pragma once
 
+#include <filesystem>
 #include <memory>
 #include <optional>
 #include <string>
@@ -25,6 +26,8 @@ struct JobOptions {
   int plot_points = 120;          // seed masses for the Gamma_D/Gamma_H plot data
   int threads = 1;                // worker threads; the results do not depend on it
   bool quiet = true;              // no progress bar on stderr
+  // B(M) tables are kept here between runs (tunnelling/action_cache.hpp); none: always rebuilt.
+  std::optional<std::filesystem::path> cache_directory;
 };
 
 struct HiggsPoint {
@@ -73,6 +76,7 @@ struct JobResults {
   std::vector<double> plot_field, plot_lambda, plot_lambda_eff;  // the potential, for plots
   double survivors_mass = 0;                                     // holes above this mass survive today (GeV)
   double seconds = 0;
+  int tables_built = 0, tables_from_cache = 0;  // B(M) tables, per (Higgs point, prescription)
 };
 
 // Throws InputError for a prescription the potential cannot take (hot_bubble needs the Standard

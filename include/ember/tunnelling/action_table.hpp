@@ -47,9 +47,16 @@ class ActionTable {
   double top() const { return top_; }
   const ActionTableSummary& summary() const { return summary_; }
 
+  // The table as text (hex floats: reading it back gives the same table bit for bit), and back.
+  std::string to_text() const;
+  static ActionTable from_text(const std::string& text);  // throws InputError on a malformed text
+
   struct Branch;
 
  private:
+  ActionTable() = default;
+  void build_branches();
+  void set_message();
   Prescription prescription_;
   double floor_ = 0, top_ = 0;
   std::vector<ActionPoint> nodes_;

@@ -50,6 +50,7 @@ struct Flags {
   bool outside_running = false;    // a scale beyond the range the couplings were run over
   bool no_decay = false;           // no bubble at all (B is infinite; rate zero)
   bool beyond_table = false;       // above the tabulated range: B extrapolated, the rate negligible
+  bool unconverged = false;        // the solver's error on B exceeds 1e-4 of B (see the note)
   std::vector<std::string> list() const;
   Flags& operator|=(const Flags& o);
 };

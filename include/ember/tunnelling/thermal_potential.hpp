@@ -19,6 +19,7 @@ class ThermalPotential final : public higgs::Potential {
   double curvature(double h) const override { return m2_ + base_.curvature(h); }
   double field_max() const override { return base_.field_max(); }
   std::string description() const override;
+  std::string identity() const override;
 
  private:
   const higgs::Potential& base_;

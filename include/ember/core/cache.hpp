@@ -1,0 +1,19 @@
+// A folder of results keyed by a fingerprint of everything they depend on, shared safely by
+// several processes: entries are written atomically (temporary file and rename), so a reader sees
+// a whole entry or none; two writers of one key write the same bytes.
+#pragma once
+
+#include <filesystem>
+#include <optional>
+#include <string>
+
+namespace ember {
+
+// EMBER_CACHE_DIR, else $XDG_CACHE_HOME/ember, else $HOME/.cache/ember; none if none is set.
+std::optional<std::filesystem::path> default_cache_directory();
+
+std::optional<std::string> cache_read(const std::filesystem::path& directory, const std::string& key);
+// Failures to write are not errors (the cache is an optimisation); they return false.
+bool cache_write(const std::filesystem::path& directory, const std::string& key, const std::string& text);
+
+}  // namespace ember
