@@ -2,6 +2,8 @@
 
 #include <cmath>
 
+#include "ember/core/errors.hpp"
+#include "ember/core/record.hpp"
 #include "ember/core/text.hpp"
 
 using namespace ember;
@@ -48,4 +50,27 @@ TEST_CASE("printable escapes control characters and invalid UTF-8, keeps valid U
   CHECK(printable("tab\there") == "tab\\x09here");
   CHECK(printable("\xC0\xAF") == "\\xC0\\xAF");  // an overlong '/' (RFC 3629 section 10)
   CHECK(printable("\xE2\x82") == "\\xE2\\x82");  // cut short
+}
+
+TEST_CASE("records read back bit for bit, and say what is wrong") {
+  // Hex floats are exact by construction (C99 7.19.6.1, the %a conversion).
+  RecordWriter w;
+  w.word("unit").real(0.1).real(-1.0 / 3).real(5e-324).maybe_real(std::nullopt).maybe_real(1e300).whole(-7).flag(true);
+  w.text_line("summary", "probe_field: 30 nodes\nand more");
+  RecordReader r(w.str(), "test record");
+  r.expect("unit");
+  CHECK(r.real() == 0.1);
+  CHECK(r.real() == -1.0 / 3);
+  CHECK(r.real() == 5e-324);
+  CHECK_FALSE(r.maybe_real());
+  CHECK(r.maybe_real() == 1e300);
+  CHECK(r.whole() == -7);
+  CHECK(r.flag());
+  CHECK(r.text_line("summary") == "probe_field: 30 nodes and more");
+  CHECK(r.at_end());
+  RecordReader bad("unit 0x1.8p+1 zz", "test record");
+  bad.expect("unit");
+  CHECK(bad.real() == 3.0);
+  CHECK_THROWS_WITH_AS(bad.real(), doctest::Contains("test record: \"zz\" is not a hex float"), InputError);
+  CHECK_THROWS_WITH_AS(bad.word(), doctest::Contains("ends early"), InputError);
 }

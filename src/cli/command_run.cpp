@@ -16,8 +16,8 @@ namespace ember::cli {
 namespace {
 
 struct RunOptions {
-  std::string scenario, output, cache_dir;
-  bool json = false, no_plots = false, quiet = false, no_cache = false;
+  std::string scenario, output, cache_dir, checkpoint;
+  bool json = false, no_plots = false, quiet = false, no_cache = false, restart = false;
   int threads = default_threads();
 };
 
@@ -29,6 +29,12 @@ int run(const RunOptions& o) {
   job.threads = o.threads;
   job.quiet = o.quiet;
   if (!o.no_cache) job.cache_directory = o.cache_dir.empty() ? default_cache_directory() : o.cache_dir;
+  // Resuming is the default: a rerun of the same command picks up the units a killed run finished.
+  const std::filesystem::path checkpoint =
+      o.checkpoint.empty() ? out / ".ember-checkpoint" : std::filesystem::path(o.checkpoint);
+  job.checkpoint = scenario::CheckpointOptions{
+      checkpoint, fmt::format("scenario {}\n{}", report::scenario_hash(loaded), scenario::job_identity(job)),
+      o.restart};
   const scenario::JobResults results = scenario::run_job(loaded.scenario, job);  // cosmology, evaporation,
                                                                                  // higgs, tunnelling, population
   // Where the B(M) tables came from goes to stderr: it is not a result, and outputs do not depend on it.
@@ -36,7 +42,10 @@ int run(const RunOptions& o) {
     std::cerr << fmt::format("ember: B(M) tables: {} from the cache{}, {} built\n", results.tables_from_cache,
                              job.cache_directory ? " in " + job.cache_directory->string() : std::string(" (off)"),
                              results.tables_built);
+  if (!o.quiet && results.units_resumed > 0)
+    std::cerr << fmt::format("ember: resumed {} finished units from {}\n", results.units_resumed, checkpoint.string());
   const report::Written written = report::write_outputs(loaded, results, out, !o.no_plots);
+  scenario::Checkpoint::remove_folder(checkpoint);  // the outputs are whole: nothing left to resume
   if (o.json) {
     auto j = report::summary_json(loaded, results);
     j["output_directory"] = out.string();
@@ -68,6 +77,10 @@ Command add_run(CLI::App& parent) {
                   "keep B(M) tables here between runs (default: $EMBER_CACHE_DIR, else $XDG_CACHE_HOME/ember, else "
                   "~/.cache/ember)");
   app->add_flag("--no-cache", o->no_cache, "build every B(M) table afresh and store none");
+  app->add_option("--checkpoint", o->checkpoint,
+                  "checkpoint finished units here as the run goes; rerunning the same command resumes "
+                  "(default: OUTPUT/.ember-checkpoint, removed once the outputs are written)");
+  app->add_flag("--restart", o->restart, "discard a checkpoint (of this or another scenario) and start afresh");
   app->add_flag("--json", o->json, "print the summary as one JSON object on stdout");
   return {app, [o] { return run(*o); }};
 }

@@ -16,14 +16,14 @@
 
 namespace ember::report {
 
+std::string scenario_hash(const scenario::LoadedScenario& l) {
+  return fingerprint(YAML::Dump(l.resolved));
+}
+
 namespace {
 
 namespace u = ember::units;
 using nlohmann::ordered_json;
-
-std::string hash_of(const scenario::LoadedScenario& l) {
-  return fingerprint(YAML::Dump(l.resolved));
-}
 
 ordered_json number_or_null(std::optional<double> v) {
   return v && std::isfinite(*v) ? ordered_json(*v) : ordered_json(nullptr);
@@ -35,8 +35,9 @@ std::string cell(std::optional<double> v) {
 
 std::string csv_header(const scenario::LoadedScenario& l, const std::string& what,
                        const std::vector<std::string>& notes) {
-  std::string out = fmt::format("# Ember {}: {}\n# scenario {} (hash {}), ember {}\n", what,
-                                l.scenario.title.empty() ? l.source : l.scenario.title, l.source, hash_of(l), version);
+  std::string out =
+      fmt::format("# Ember {}: {}\n# scenario {} (hash {}), ember {}\n", what,
+                  l.scenario.title.empty() ? l.source : l.scenario.title, l.source, scenario_hash(l), version);
   for (const auto& n : notes) out += "# " + n + "\n";
   return out;
 }
@@ -175,7 +176,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
   ordered_json j;
   j["ember_version"] = version;
   j["scenario_file"] = l.source;
-  j["scenario_hash"] = hash_of(l);
+  j["scenario_hash"] = scenario_hash(l);
   j["title"] = l.scenario.title;
   j["scenario"] = scenario::resolved_json(l.resolved);
   j["cautions"] = cautions(l.scenario);
@@ -234,7 +235,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
 
 std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
   std::string t = fmt::format("Ember run: {}\n  scenario {} (hash {})\n  population: {}\n  potential: {}\n",
-                              l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, hash_of(l),
+                              l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, scenario_hash(l),
                               r.spectrum, r.potential);
   if (r.stability)
     t += fmt::format("  Higgs vacuum: {}{}; unseeded decays expected in the past light cone: log10 N = {}\n",

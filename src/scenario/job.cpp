@@ -4,14 +4,18 @@
 
 #include <chrono>
 #include <cmath>
-#include <mutex>
 
+#include "ember/core/embedded.hpp"
 #include "ember/core/errors.hpp"
 #include "ember/core/parallel.hpp"
 #include "ember/core/progress.hpp"
 #include "ember/greybody/table.hpp"
+#include "ember/scenario/checkpoint.hpp"
+#include "ember/scenario/executor.hpp"
+#include "ember/scenario/unit_result.hpp"
 #include "ember/tunnelling/action_cache.hpp"
 #include "ember/tunnelling/landscape.hpp"
+#include "ember/version.hpp"
 
 namespace ember::scenario {
 
@@ -195,24 +199,14 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   std::vector<PointModel> models(points.size());
   parallel_for(points.size(), o.threads, [&](std::size_t i) { models[i] = model_for(points[i], s.standard_model); });
 
-  struct Unit {
-    std::vector<std::optional<double>> beta_max, f_max;
-    std::vector<population::Response> scan;
-    population::Counts counts;
-    std::string table_summary;
-    std::optional<bool> cache_hit;  // set when a table was needed
-    std::vector<double> plot_ratio;
-  };
-  std::vector<Unit> units(points.size() * n_presc);
-  Progress progress("ember run", static_cast<long>(units.size()), o.quiet);
-  std::mutex progress_mutex;
-  long done = 0;
-  parallel_for(units.size(), o.threads, [&](std::size_t index) {
+  // Each unit is a pure function of its index, returned as exact text: the same numbers whether
+  // it ran here, on another thread, on another MPI rank or in an earlier, interrupted run.
+  const UnitWork compute = [&](std::size_t index) {
     const std::size_t point = index / n_presc, k = index % n_presc;
     const PointModel& model = models[point];
     const bool central = points[point].central;
     const Prescription p = s.tunnelling.prescriptions[k];
-    Unit& unit = units[index];
+    UnitResult unit;
     unit.beta_max.assign(rows.size(), std::nullopt);
     unit.f_max.assign(rows.size(), std::nullopt);
     if (!(model.no_decay && p != Prescription::thin_wall)) {
@@ -264,10 +258,41 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
         }
       }
     }
-    const std::lock_guard<std::mutex> lock(progress_mutex);
-    progress.advance(++done, name_of(p));
+    return to_text(unit);
+  };
+
+  // Units finished by an earlier run of this job come from its checkpoint; the rest are computed.
+  const std::size_t n_units = points.size() * n_presc;
+  const ThreadExecutor local(o.threads);
+  const Executor& executor = o.executor ? *o.executor : local;
+  std::optional<Checkpoint> checkpoint;
+  if (o.checkpoint && executor.assembles()) checkpoint.emplace(*o.checkpoint);
+  std::vector<UnitResult> units(n_units);
+  std::vector<std::size_t> pending;
+  for (std::size_t i = 0; i < n_units; ++i) {
+    if (checkpoint)
+      if (const auto text = checkpoint->load(i)) {
+        try {
+          units[i] = unit_from_text(*text, fmt::format("checkpoint unit {}", i));
+          ++out.units_resumed;
+          continue;
+        } catch (const InputError&) {  // damaged: compute it again
+        }
+      }
+    pending.push_back(i);
+  }
+  pending = executor.agree(pending);
+  Progress progress("ember run", static_cast<long>(pending.size()), o.quiet || !executor.assembles());
+  long done = 0;
+  executor.run(pending, compute, [&](std::size_t i, const std::string& text) {
+    units[i] = unit_from_text(text, fmt::format("unit {}", i));
+    if (units[i].cache_hit) ++(*units[i].cache_hit ? out.tables_from_cache : out.tables_built);
+    if (checkpoint) checkpoint->save(i, text);
+    progress.advance(++done, name_of(s.tunnelling.prescriptions[i % n_presc]));
   });
   progress.finish();
+  out.assembled = executor.assembles();
+  if (!out.assembled) return out;
 
   // Assemble, in order.
   std::vector<std::vector<std::vector<std::optional<double>>>> band_values(
@@ -277,8 +302,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     BandPoint bp{points[point], model.stability ? model.stability->verdict : higgs::Verdict::metastable, false,
                  model.stability ? model.stability->log10_expected_decays : std::nullopt};
     for (std::size_t k = 0; k < n_presc; ++k) {
-      const Unit& unit = units[point * n_presc + k];
-      if (unit.cache_hit) ++(*unit.cache_hit ? out.tables_from_cache : out.tables_built);
+      const UnitResult& unit = units[point * n_presc + k];
       for (std::size_t r = 0; r < rows.size(); ++r) {
         band_values[k][r].push_back(unit.beta_max[r]);
         bp.constraint |= unit.beta_max[r].has_value();
@@ -329,6 +353,18 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     }
   out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   return out;
+}
+
+}  // namespace ember::scenario
+
+namespace ember::scenario {
+
+std::string job_identity(const JobOptions& o) {
+  return fmt::format(
+      "ember {} numerics {} table_points {} table_check_stride {} responses_per_decade {} "
+      "decay_grid_points {} plot_points {}",
+      version, embedded::numerics_fingerprint(), o.table_points, o.table_check_stride, o.responses_per_decade,
+      o.decay_grid_points, o.plot_points);
 }
 
 }  // namespace ember::scenario

@@ -4,12 +4,12 @@
 #include <gsl/gsl_interp.h>
 
 #include <algorithm>
-#include <charconv>
 #include <chrono>
 #include <cmath>
 #include <sstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/record.hpp"
 
 namespace ember::tunnelling {
 
@@ -193,21 +193,11 @@ namespace ember::tunnelling {
 namespace {
 
 std::string hex(double x) {
-  return fmt::format("{:a}", x);
+  return hex_float(x);
 }
 
 double unhex(const std::string& text) {
-  double x = 0;
-  const char* b = text.data();
-  const char* e = b + text.size();
-  const bool negative = !text.empty() && text[0] == '-';
-  std::string_view body(b + (negative ? 1 : 0), static_cast<std::size_t>(e - b) - (negative ? 1 : 0));
-  if (body.size() > 2 && body[0] == '0' && (body[1] == 'x' || body[1] == 'X')) body.remove_prefix(2);
-  const auto [end, ec] = std::from_chars(body.data(), body.data() + body.size(), x, std::chars_format::hex);
-  if (ec != std::errc{} || end != body.data() + body.size())
-    throw InputError(
-        fmt::format("B(M) table text: \"{}\" is not a hex float; expected the format to_text writes", text));
-  return negative ? -x : x;
+  return parse_hex_float(text, "B(M) table text");
 }
 
 unsigned flag_bits(const Flags& f) {

@@ -252,6 +252,53 @@ sed -e 's/top_mass: 172.57 GeV/top_mass: 172.0 GeV/' "$work/demo-small.yaml" >"$
 grep -q 'top_mass: 172.0 GeV' "$work/demo-top.yaml" || fail "cache: the test scenario has no top_mass line to change"
 run "run changed input" 0 -- "$ember" run "$work/demo-top.yaml" -o "$work/run6" --no-plots
 stderr_has "run changed input" "0 from the cache"
+# Kill and resume: 7 units (the central point and a 3 x 2 band, one prescription), killed (SIGKILL, nothing caught) once two are checkpointed,
+# then rerun with the same command; the files must equal an uninterrupted run's, and the rerun
+# must compute only the units the killed run had not finished.
+cat >"$work/band.yaml" <<'YAML'
+title: "resume test (invented numbers)"
+population:
+  spectrum: {shape: monochromatic, mass: 1e9 g}
+  abundance: {measure: beta, value: 1e-22}
+tunnelling:
+  prescriptions: [probe_field]
+scan:
+  masses: {from: 1 g, to: 1e12 g, points: 4}
+  band:
+    top_mass: {points: 3}
+    higgs_mass: {points: 2}
+YAML
+run "band uninterrupted" 0 -- "$ember" run "$work/band.yaml" -o "$work/band-whole" --no-plots --quiet
+[[ -e "$work/band-whole/.ember-checkpoint" ]] && fail "band uninterrupted: checkpoint left after a finished run"
+"$ember" run "$work/band.yaml" -o "$work/band-killed" --no-plots --quiet --no-cache --threads 1 >/dev/null 2>&1 &
+victim=$!
+for _ in $(seq 1 600); do
+  [[ $(ls "$work/band-killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-') -ge 2 ]] && break
+  kill -0 $victim 2>/dev/null || break
+  sleep 0.05
+done
+kill -9 $victim 2>/dev/null
+wait $victim 2>/dev/null
+finished=$(ls "$work/band-killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-')
+[[ $finished -ge 2 && $finished -lt 7 ]] || fail "kill and resume: $finished of 7 units checkpointed at the kill; expected 2 to 6"
+[[ -e "$work/band-killed/summary.json" ]] && fail "kill and resume: a killed run wrote summary.json"
+run "band resumed" 0 -- "$ember" run "$work/band.yaml" -o "$work/band-killed" --no-plots --no-cache --threads 1
+stderr_has "band resumed" "resumed $finished finished units"
+stderr_has "band resumed" "0 from the cache (off), $((7 - finished)) built"
+for f in constraint.csv decay.csv rates.csv potential.csv resolved.yaml; do
+  cmp -s "$work/band-whole/$f" "$work/band-killed/$f" || fail "kill and resume: $f differs from the uninterrupted run"
+done
+diff <(grep -v '"seconds"' "$work/band-whole/summary.json") <(grep -v '"seconds"' "$work/band-killed/summary.json") >/dev/null ||
+  fail "kill and resume: summary.json differs beyond timing"
+[[ -e "$work/band-killed/.ember-checkpoint" ]] && fail "kill and resume: checkpoint left after the finished run"
+# A checkpoint of another scenario is refused unless --restart.
+mkdir -p "$work/other/.ember-checkpoint"
+echo "scenario 0000000000000000" >"$work/other/.ember-checkpoint/job.identity"
+run "resume other scenario" 2 -- "$ember" run "$work/band.yaml" -o "$work/other" --no-plots --quiet
+stderr_has "resume other scenario" "--restart"
+[[ -e "$work/other/summary.json" ]] && fail "resume other scenario: wrote output"
+run "restart other scenario" 0 -- "$ember" run "$work/band.yaml" -o "$work/other" --no-plots --quiet --restart
+cmp -s "$work/band-whole/constraint.csv" "$work/other/constraint.csv" || fail "restart: constraint.csv differs"
 run "run bad scenario" 2 -- "$ember" run "$src/tests/data/bad/unknown_key.yaml" -o "$work/never-run"
 [[ -e "$work/never-run" ]] && fail "run bad scenario: wrote output"
 run "run unwritable folder" 2 -- "$ember" run "$work/demo-small.yaml" -o "$src/configs/demo.yaml" --no-plots

@@ -14,6 +14,9 @@
 
 namespace ember::report {
 
+// The fingerprint of the resolved scenario that every output file names.
+std::string scenario_hash(const scenario::LoadedScenario& loaded);
+
 // The cautions every summary states.
 std::vector<std::string> cautions(const scenario::Scenario& s);
 

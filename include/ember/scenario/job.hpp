@@ -13,6 +13,8 @@
 
 #include "ember/higgs/stability.hpp"
 #include "ember/population/counts.hpp"
+#include "ember/scenario/checkpoint.hpp"
+#include "ember/scenario/executor.hpp"
 #include "ember/scenario/scenario.hpp"
 
 namespace ember::scenario {
@@ -28,7 +30,15 @@ struct JobOptions {
   bool quiet = true;              // no progress bar on stderr
   // B(M) tables are kept here between runs (tunnelling/action_cache.hpp); none: always rebuilt.
   std::optional<std::filesystem::path> cache_directory;
+  // Finished units are checkpointed here, and a rerun of the same job resumes from them.
+  std::optional<CheckpointOptions> checkpoint;
+  // Who computes the units; none: `threads` threads on this machine. Not owned.
+  const Executor* executor = nullptr;
 };
+
+// What a checkpoint of this job must match besides the scenario: every option that changes a
+// number (not the thread count, the cache or the executor), and the numerics fingerprint.
+std::string job_identity(const JobOptions& options);
 
 struct HiggsPoint {
   higgs::Inputs inputs;
@@ -77,6 +87,8 @@ struct JobResults {
   double survivors_mass = 0;                                     // holes above this mass survive today (GeV)
   double seconds = 0;
   int tables_built = 0, tables_from_cache = 0;  // B(M) tables, per (Higgs point, prescription)
+  int units_resumed = 0;                        // units read back from a checkpoint
+  bool assembled = true;                        // false on MPI ranks that only computed
 };
 
 // Throws InputError for a prescription the potential cannot take (hot_bubble needs the Standard

@@ -1,0 +1,34 @@
+// Checkpoints of the main job: every finished unit (Higgs point x prescription) is written to a
+// folder as it completes, atomically, so a killed run loses at most the units in flight. The
+// folder also holds the identity of the job (the resolved scenario's hash, the job options and
+// the numerics fingerprint); a folder written for another job is refused unless restarting.
+#pragma once
+
+#include <cstddef>
+#include <filesystem>
+#include <optional>
+#include <string>
+
+namespace ember::scenario {
+
+struct CheckpointOptions {
+  std::filesystem::path directory;
+  std::string identity;  // what must match for the checkpoint to be reused
+  bool restart = false;  // discard a checkpoint of another job (or of this one) and start afresh
+};
+
+class Checkpoint {
+ public:
+  // Throws InputError when the folder holds another job's checkpoint and restart is off.
+  explicit Checkpoint(const CheckpointOptions& options);
+  std::optional<std::string> load(std::size_t unit) const;  // none if absent or damaged
+  void save(std::size_t unit, const std::string& text) const;
+  // After the outputs are written the checkpoint has served its purpose. Best effort.
+  static void remove_folder(const std::filesystem::path& directory);
+
+ private:
+  std::filesystem::path unit_file(std::size_t unit) const;
+  std::filesystem::path dir_;
+};
+
+}  // namespace ember::scenario

@@ -1,0 +1,30 @@
+// What one unit of the main job produces: one Higgs-input point under one prescription. Units are
+// independent; they are what threads share out, what a checkpoint stores and what MPI ranks send
+// to rank 0. The text form is exact (hex floats), so a resumed or distributed run assembles the
+// same numbers as a serial one.
+//
+// Units: masses in GeV, times in GeV^-1 (as population::Response).
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "ember/population/counts.hpp"
+
+namespace ember::scenario {
+
+struct UnitResult {
+  std::vector<std::optional<double>> beta_max, f_max;  // per scan row; none: no constraint
+  std::vector<population::Response> scan;              // central point only
+  population::Counts counts;                           // central point only
+  std::string table_summary;                           // central point only
+  std::vector<double> plot_ratio;                      // Gamma_D / Gamma_H at the plot masses (central)
+  std::optional<bool> cache_hit;                       // set when a B(M) table was needed
+};
+
+std::string to_text(const UnitResult& unit);
+// Throws InputError naming `what` (a file, or a rank) when the text is malformed.
+UnitResult unit_from_text(const std::string& text, const std::string& what);
+
+}  // namespace ember::scenario

@@ -1,0 +1,95 @@
+#include "ember/scenario/unit_result.hpp"
+
+#include "ember/core/record.hpp"
+
+namespace ember::scenario {
+
+namespace {
+
+void write(RecordWriter& w, const population::Response& r) {
+  const auto& f = r.formation;
+  const auto& d = r.decay;
+  w.word("response").real(r.mass).real(r.lightcone_per_beta).real(r.hubble_per_beta).real(r.f_per_beta);
+  w.real(r.count_per_beta).real(f.mass).real(f.time).real(f.scale_factor).real(f.temperature).real(f.total_density);
+  w.real(d.hazard).real(d.hazard_in_time).real(d.probability).flag(d.evaporated).real(d.lifetime).real(d.end_mass);
+  w.maybe_real(d.crossover_mass).real(d.branching_at_crossover).real(d.decay_time).real(d.lightcone_radius);
+  w.flag(d.decays_below_floor).flag(d.formed_below_floor).end_line();
+}
+
+population::Response read_response(RecordReader& in) {
+  population::Response r;
+  auto& f = r.formation;
+  auto& d = r.decay;
+  in.expect("response");
+  r.mass = in.real();
+  r.lightcone_per_beta = in.real();
+  r.hubble_per_beta = in.real();
+  r.f_per_beta = in.real();
+  r.count_per_beta = in.real();
+  f.mass = in.real();
+  f.time = in.real();
+  f.scale_factor = in.real();
+  f.temperature = in.real();
+  f.total_density = in.real();
+  d.hazard = in.real();
+  d.hazard_in_time = in.real();
+  d.probability = in.real();
+  d.evaporated = in.flag();
+  d.lifetime = in.real();
+  d.end_mass = in.real();
+  d.crossover_mass = in.maybe_real();
+  d.branching_at_crossover = in.real();
+  d.decay_time = in.real();
+  d.lightcone_radius = in.real();
+  d.decays_below_floor = in.flag();
+  d.formed_below_floor = in.flag();
+  return r;
+}
+
+}  // namespace
+
+std::string to_text(const UnitResult& u) {
+  RecordWriter w;
+  w.word("ember-unit").whole(1).end_line();
+  w.word("rows").whole(static_cast<long long>(u.beta_max.size()));
+  for (std::size_t i = 0; i < u.beta_max.size(); ++i) w.maybe_real(u.beta_max[i]).maybe_real(u.f_max[i]);
+  w.end_line();
+  w.word("scan").whole(static_cast<long long>(u.scan.size())).end_line();
+  for (const auto& r : u.scan) write(w, r);
+  const auto& c = u.counts;
+  w.word("counts").real(c.lightcone).real(c.hubble).real(c.f_pbh).real(c.beta).real(c.from_evaporated).end_line();
+  w.word("plot").whole(static_cast<long long>(u.plot_ratio.size()));
+  for (double x : u.plot_ratio) w.real(x);
+  w.end_line();
+  w.word("cache").word(!u.cache_hit ? "-" : *u.cache_hit ? "1" : "0").end_line();
+  w.text_line("summary", u.table_summary);
+  return w.str();
+}
+
+UnitResult unit_from_text(const std::string& text, const std::string& what) {
+  RecordReader in(text, what);
+  UnitResult u;
+  in.expect("ember-unit");
+  in.expect("1");
+  in.expect("rows");
+  const long long rows = in.whole();
+  for (long long i = 0; i < rows; ++i) {
+    u.beta_max.push_back(in.maybe_real());
+    u.f_max.push_back(in.maybe_real());
+  }
+  in.expect("scan");
+  const long long n = in.whole();
+  for (long long i = 0; i < n; ++i) u.scan.push_back(read_response(in));
+  in.expect("counts");
+  u.counts = {in.real(), in.real(), in.real(), in.real(), in.real()};
+  in.expect("plot");
+  const long long p = in.whole();
+  for (long long i = 0; i < p; ++i) u.plot_ratio.push_back(in.real());
+  in.expect("cache");
+  const std::string cache = in.word();
+  if (cache != "-") u.cache_hit = cache == "1";
+  u.table_summary = in.text_line("summary");
+  return u;
+}
+
+}  // namespace ember::scenario
