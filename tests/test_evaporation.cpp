@@ -1,13 +1,19 @@
 // Mass loss over the Standard Model and evaporation trajectories, against the literature.
 #include <doctest/doctest.h>
+#include <fmt/format.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
+#include <unistd.h>
 
 #include <cmath>
+#include <filesystem>
+#include <fstream>
 #include <functional>
+#include <iterator>
 
 #include "ember/core/errors.hpp"
 #include "ember/evaporation/budget.hpp"
+#include "ember/evaporation/mass_loss_cache.hpp"
 #include "ember/evaporation/trajectory.hpp"
 #include "ember/units/constants.hpp"
 #include "support.hpp"
@@ -200,4 +206,32 @@ TEST_CASE("a hole lighter than the cutoff is all analytic tail at its own alpha"
   const double m = grams(1e15);
   CHECK(close(t.lifetime(), m * m * m / (3 * standard_model().alpha(m)), 1e-12));
   CHECK(close(t.cutoff_mass(), m, 1e-15));
+}
+
+TEST_CASE("cached alpha(M) tables: a hit is bit for bit, a change misses, damage is rebuilt") {
+  const auto dir = std::filesystem::temp_directory_path() / fmt::format("ember-alpha-cache-{}", ::getpid());
+  std::filesystem::remove_all(dir);
+  const ParticleSet light = all().only({"photon", "electron", "muon"});
+  const CachedMassLoss first = cached_mass_loss(greybody(), light, {}, dir);
+  const CachedMassLoss second = cached_mass_loss(greybody(), light, {}, dir);
+  CHECK_FALSE(first.hit);
+  CHECK(second.hit);
+  for (double m : {1e-2, 3e9, 1e15, 7e22})  // identical numbers, not merely close (hex floats)
+    CHECK(first.mass_loss.alpha(grams(m)) == second.mass_loss.alpha(grams(m)));
+  CHECK(first.mass_loss.relative_error() == second.mass_loss.relative_error());
+  MassLossOptions qcd;
+  qcd.qcd_scale = 0.25;
+  const std::string key = mass_loss_key(greybody(), light, {});
+  CHECK(mass_loss_key(greybody(), light, qcd) != key);
+  CHECK(mass_loss_key(greybody(), all().only({"photon", "electron"}), {}) != key);
+  {
+    std::ifstream in(dir / key);
+    std::string text((std::istreambuf_iterator<char>(in)), {});
+    text[text.rfind("0x1.") + 5] ^= 1;  // one digit of one node
+    std::ofstream(dir / key) << text;
+  }
+  const CachedMassLoss third = cached_mass_loss(greybody(), light, {}, dir);
+  CHECK_FALSE(third.hit);
+  CHECK(third.mass_loss.alpha(grams(1e15)) == first.mass_loss.alpha(grams(1e15)));
+  std::filesystem::remove_all(dir);
 }

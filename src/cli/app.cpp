@@ -33,7 +33,7 @@ int report(const std::string& kind, const std::string& message, int code) {
 
 }  // namespace
 
-int run(int argc, char** argv) {
+int run(int argc, char** argv, ExecutorFactory factory) {
   use_gsl_status_codes();
   CLI::App app{
       "Ember: is a population of primordial black holes excluded because, while evaporating, the holes "
@@ -45,8 +45,9 @@ int run(int argc, char** argv) {
       "Exit codes: 0 success, 1 internal error, 2 bad input, 3 numerical failure.\n"
       "Every command that prints results takes --json for one JSON object on stdout.");
 
-  const std::vector<Command> commands{add_check(app),     add_schema(app), add_convert(app), add_greybody(app),
-                                      add_evaporate(app), add_higgs(app),  add_bounce(app),  add_run(app)};
+  const std::vector<Command> commands{
+      add_check(app),     add_schema(app), add_convert(app), add_greybody(app),
+      add_evaporate(app), add_higgs(app),  add_bounce(app),  add_run(app, std::move(factory))};
 
   try {
     app.parse(argc, argv);

@@ -4,9 +4,11 @@
 
 #include <CLI/CLI.hpp>
 #include <functional>
+#include <memory>
 #include <nlohmann/json.hpp>
 #include <string>
 
+#include "ember/scenario/executor.hpp"
 #include "ember/units/quantity.hpp"
 
 namespace ember::cli {
@@ -23,7 +25,10 @@ Command add_greybody(CLI::App& parent);
 Command add_evaporate(CLI::App& parent);
 Command add_higgs(CLI::App& parent);
 Command add_bounce(CLI::App& parent);
-Command add_run(CLI::App& parent);
+// Makes the executor `ember run` computes its units with, from the thread count; empty: threads
+// on this machine. ember-mpi passes one for MPI ranks.
+using ExecutorFactory = std::function<std::unique_ptr<scenario::Executor>(int threads)>;
+Command add_run(CLI::App& parent, ExecutorFactory factory);
 
 // A quantity given on the command line, in internal units; errors name the option.
 double quantity_option(const std::string& option, const std::string& text, units::Kind kind,
@@ -32,6 +37,6 @@ double quantity_option(const std::string& option, const std::string& text, units
 // Prints one JSON object on stdout (the --json contract).
 void print_json(const nlohmann::ordered_json& object);
 
-int run(int argc, char** argv);
+int run(int argc, char** argv, ExecutorFactory factory = {});
 
 }  // namespace ember::cli

@@ -21,13 +21,15 @@ struct RunOptions {
   int threads = default_threads();
 };
 
-int run(const RunOptions& o) {
+int run(const RunOptions& o, const ExecutorFactory& factory) {
   const scenario::LoadedScenario loaded = scenario::load_scenario_file(o.scenario);  // input, validated whole
   const std::filesystem::path out =
       o.output.empty() ? loaded.scenario.output.directory : std::filesystem::path(o.output);
   scenario::JobOptions job;
   job.threads = o.threads;
   job.quiet = o.quiet;
+  const std::unique_ptr<scenario::Executor> executor = factory ? factory(o.threads) : nullptr;
+  job.executor = executor.get();
   if (!o.no_cache) job.cache_directory = o.cache_dir.empty() ? default_cache_directory() : o.cache_dir;
   // Resuming is the default: a rerun of the same command picks up the units a killed run finished.
   const std::filesystem::path checkpoint =
@@ -37,6 +39,7 @@ int run(const RunOptions& o) {
       o.restart};
   const scenario::JobResults results = scenario::run_job(loaded.scenario, job);  // cosmology, evaporation,
                                                                                  // higgs, tunnelling, population
+  if (!results.assembled) return exit_ok;  // an MPI rank that only computed: rank 0 writes
   // Where the B(M) tables came from goes to stderr: it is not a result, and outputs do not depend on it.
   if (!o.quiet && (results.tables_built + results.tables_from_cache) > 0)
     std::cerr << fmt::format("ember: B(M) tables: {} from the cache{}, {} built\n", results.tables_from_cache,
@@ -61,7 +64,7 @@ int run(const RunOptions& o) {
 
 }  // namespace
 
-Command add_run(CLI::App& parent) {
+Command add_run(CLI::App& parent, ExecutorFactory factory) {
   auto o = std::make_shared<RunOptions>();
   CLI::App* app = parent.add_subcommand(
       "run",
@@ -82,7 +85,7 @@ Command add_run(CLI::App& parent) {
                   "(default: OUTPUT/.ember-checkpoint, removed once the outputs are written)");
   app->add_flag("--restart", o->restart, "discard a checkpoint (of this or another scenario) and start afresh");
   app->add_flag("--json", o->json, "print the summary as one JSON object on stdout");
-  return {app, [o] { return run(*o); }};
+  return {app, [o, factory = std::move(factory)] { return run(*o, factory); }};
 }
 
 }  // namespace ember::cli

@@ -6,6 +6,7 @@
 
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/hash.hpp"
 
 namespace ember {
 
@@ -31,6 +32,31 @@ bool cache_write(const std::filesystem::path& directory, const std::string& key,
   } catch (const InputError&) {
     return false;
   }
+}
+
+namespace {
+constexpr std::string_view checksum_tag = "checksum ";
+}
+
+std::string with_checksum(const std::string& text) {
+  return text + std::string(checksum_tag) + fingerprint(text) + "\n";
+}
+
+std::optional<std::string> without_checksum(const std::string& entry) {
+  const std::size_t at = entry.rfind(checksum_tag);
+  if (at == std::string::npos) return std::nullopt;
+  std::string body = entry.substr(0, at);
+  if (entry.substr(at + checksum_tag.size()) != fingerprint(body) + "\n") return std::nullopt;
+  return body;
+}
+
+std::optional<std::string> cache_read_checked(const std::filesystem::path& directory, const std::string& key) {
+  const auto entry = cache_read(directory, key);
+  return entry ? without_checksum(*entry) : std::nullopt;
+}
+
+bool cache_write_checked(const std::filesystem::path& directory, const std::string& key, const std::string& text) {
+  return cache_write(directory, key, with_checksum(text));
 }
 
 }  // namespace ember

@@ -8,9 +8,11 @@
 #include <chrono>
 #include <cmath>
 #include <functional>
+#include <optional>
 
 #include "ember/core/errors.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/core/record.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::evaporation {
@@ -140,6 +142,7 @@ MassLoss::Kernel build_kernel(int twice_spin, const std::shared_ptr<const greybo
 
 struct MassLoss::Tabulated {
   SplinePtr ln_alpha;  // against ln M (M in GeV)
+  std::vector<double> ln_alpha_nodes;
   double ln_m_lo = 0, ln_m_hi = 0, alpha_lo = 0, alpha_hi = 0;
 };
 
@@ -176,6 +179,25 @@ double MassLoss::alpha(double mass) const {
 }
 
 MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const MassLossOptions& options)
+    : MassLoss(greybody, std::move(particles), options, nullptr) {}
+
+MassLoss MassLoss::from_nodes(const greybody::Table& greybody, ParticleSet particles, const MassLossOptions& options,
+                              const std::string& text) {
+  return MassLoss(greybody, std::move(particles), options, &text);
+}
+
+std::string MassLoss::nodes_text() const {
+  RecordWriter w;
+  w.word("ember-alpha-nodes").whole(1).end_line();
+  w.word("error").real(summary_.max_midpoint_error).end_line();
+  w.word("nodes").whole(static_cast<long long>(table_->ln_alpha_nodes.size()));
+  for (double x : table_->ln_alpha_nodes) w.real(x);
+  w.end_line();
+  return w.str();
+}
+
+MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const MassLossOptions& options,
+                   const std::string* nodes)
     : particles_(std::move(particles)), options_(options) {
   options_.validate();
   const auto start = std::chrono::steady_clock::now();
@@ -190,9 +212,24 @@ MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const
   const int decades = static_cast<int>(std::lround((t->ln_m_hi - t->ln_m_lo) / std::log(10.0)));
   const int n = decades * options_.nodes_per_decade + 1;
   std::vector<double> u(static_cast<std::size_t>(n)), ln_a(static_cast<std::size_t>(n));
+  std::optional<double> known_error;
+  if (nodes) {
+    RecordReader in(*nodes, "alpha(M) nodes");
+    in.expect("ember-alpha-nodes");
+    in.expect("1");
+    in.expect("error");
+    known_error = in.real();
+    in.expect("nodes");
+    if (in.whole() != n) throw InputError(fmt::format("alpha(M) nodes: not {} nodes; expected this build's grid", n));
+    for (auto& x : ln_a) x = in.real();
+  }
   for (int i = 0; i < n; ++i) {
     const auto I = static_cast<std::size_t>(i);
     u[I] = t->ln_m_lo + (t->ln_m_hi - t->ln_m_lo) * i / (n - 1);
+    if (known_error) {
+      if (!std::isfinite(ln_a[I])) throw InputError(fmt::format("alpha(M) nodes: node {} is not finite", i));
+      continue;
+    }
     const double a = alpha_direct(std::exp(u[I]));
     if (!(a > 0) || !std::isfinite(a))
       throw NumericalError("mass-loss table",
@@ -200,12 +237,15 @@ MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const
     ln_a[I] = std::log(a);
   }
   t->ln_alpha = make_spline(u, ln_a);
+  t->ln_alpha_nodes = ln_a;
   t->alpha_lo = std::exp(ln_a.front());
   t->alpha_hi = std::exp(ln_a.back());
   table_ = t;
 
-  // The spline's error, measured against the direct sum at every interval midpoint.
-  for (int i = 0; i + 1 < n; ++i) {
+  // The spline's error, measured against the direct sum at every interval midpoint (or as
+  // measured when the nodes were first computed).
+  if (known_error) summary_.max_midpoint_error = *known_error;
+  for (int i = 0; i + 1 < n && !known_error; ++i) {
     const double mid = std::exp(0.5 * (u[static_cast<std::size_t>(i)] + u[static_cast<std::size_t>(i + 1)]));
     const double direct = alpha_direct(mid);
     summary_.max_midpoint_error = std::max(summary_.max_midpoint_error, std::abs(alpha(mid) - direct) / direct);

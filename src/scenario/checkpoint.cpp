@@ -2,32 +2,19 @@
 
 #include <fmt/format.h>
 
-#include <fstream>
-#include <sstream>
-
 #include "ember/core/atomic_file.hpp"
+#include "ember/core/cache.hpp"
 #include "ember/core/errors.hpp"
-#include "ember/core/hash.hpp"
 
 namespace ember::scenario {
 
 namespace {
 constexpr const char* identity_file = "job.identity";
 
-std::optional<std::string> read_all(const std::filesystem::path& p) {
-  std::ifstream in(p);
-  if (!in) return std::nullopt;
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-// A unit file ends with a fingerprint of its text: a damaged file is recomputed, not trusted.
-constexpr std::string_view sum_tag = "checksum ";
 }  // namespace
 
 Checkpoint::Checkpoint(const CheckpointOptions& o) : dir_(o.directory) {
-  const auto existing = read_all(dir_ / identity_file);
+  const auto existing = cache_read(dir_, identity_file);
   if (existing && *existing != o.identity + "\n") {
     if (!o.restart)
       throw InputError(fmt::format(
@@ -44,17 +31,12 @@ std::filesystem::path Checkpoint::unit_file(std::size_t unit) const {
 }
 
 std::optional<std::string> Checkpoint::load(std::size_t unit) const {
-  const auto text = read_all(unit_file(unit));
-  if (!text) return std::nullopt;
-  const std::size_t at = text->rfind(sum_tag);
-  if (at == std::string::npos) return std::nullopt;
-  const std::string body = text->substr(0, at);
-  if (text->substr(at + sum_tag.size()) != fingerprint(body) + "\n") return std::nullopt;
-  return body;
+  return cache_read_checked(dir_, unit_file(unit).filename().string());
 }
 
 void Checkpoint::save(std::size_t unit, const std::string& text) const {
-  write_file_atomically(unit_file(unit), text + std::string(sum_tag) + fingerprint(text) + "\n");
+  // Unlike the cache, a checkpoint that cannot be written is an error: resuming would be lost.
+  write_file_atomically(unit_file(unit), with_checksum(text));
 }
 
 void Checkpoint::remove_folder(const std::filesystem::path& directory) {

@@ -9,6 +9,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/parallel.hpp"
 #include "ember/core/progress.hpp"
+#include "ember/evaporation/mass_loss_cache.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/scenario/checkpoint.hpp"
 #include "ember/scenario/executor.hpp"
@@ -135,8 +136,10 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   JobResults out;
   const cosmology::Background background(s.cosmology, s.dof_table ? cosmology::DegreesOfFreedom::load(*s.dof_table)
                                                                   : cosmology::DegreesOfFreedom::load_default());
-  const evaporation::MassLoss mass_loss(greybody::load_default_table(), evaporation::load_default_particles(),
-                                        s.evaporation.mass_loss);
+  const evaporation::MassLoss mass_loss =
+      evaporation::cached_mass_loss(greybody::load_default_table(), evaporation::load_default_particles(),
+                                    s.evaporation.mass_loss, o.cache_directory)
+          .mass_loss;
   out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);
   const auto base = spectrum_at(s.population.spectrum, std::nullopt, std::nullopt);
   out.spectrum = base->description();

@@ -12,20 +12,6 @@
 
 namespace ember::tunnelling {
 
-namespace {
-// Each entry ends with a fingerprint of its own text, so a damaged file is caught even where it
-// still parses.
-constexpr std::string_view checksum_tag = "checksum ";
-
-std::optional<std::string> verified_body(const std::string& entry) {
-  const std::size_t at = entry.rfind(checksum_tag);
-  if (at == std::string::npos) return std::nullopt;
-  const std::string body = entry.substr(0, at), sum = entry.substr(at + checksum_tag.size());
-  if (sum != fingerprint(body) + "\n") return std::nullopt;
-  return body;
-}
-}  // namespace
-
 std::string action_table_key(Prescription p, const TunnellingSetup& s, const ActionTableOptions& o) {
   std::string text = fmt::format(
       "ember {} numerics {}\nprescription {}\npoints {} stop {:a} max_seed {:a} stride {}\nG {:a} floor {:a} "
@@ -42,9 +28,9 @@ CachedTable cached_action_table(Prescription p, const TunnellingSetup& setup, co
   options.validate();
   const std::string key = action_table_key(p, setup, options);
   if (directory) {
-    if (const auto entry = cache_read(*directory, key); entry && verified_body(*entry)) {
+    if (const auto body = cache_read_checked(*directory, key)) {
       try {
-        ActionTable t = ActionTable::from_text(*verified_body(*entry));
+        ActionTable t = ActionTable::from_text(*body);
         if (t.prescription() == p) return {std::move(t), true, key};
       } catch (const InputError&) {  // a damaged entry: rebuild it below
       } catch (const std::logic_error&) {
@@ -52,10 +38,7 @@ CachedTable cached_action_table(Prescription p, const TunnellingSetup& setup, co
     }
   }
   ActionTable built(p, setup, options);
-  if (directory) {
-    const std::string body = built.to_text();
-    cache_write(*directory, key, body + std::string(checksum_tag) + fingerprint(body) + "\n");
-  }
+  if (directory) cache_write_checked(*directory, key, built.to_text());
   return {std::move(built), false, key};
 }
 

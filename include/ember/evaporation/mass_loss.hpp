@@ -53,6 +53,14 @@ class MassLoss {
  public:
   MassLoss(const greybody::Table& greybody, ParticleSet particles, const MassLossOptions& options = {});
 
+  // The alpha(M) nodes and the spline's measured error, exactly (hex floats): what the disk
+  // cache keeps (mass_loss_cache.hpp).
+  std::string nodes_text() const;
+  // A MassLoss from nodes_text() of one built with the same inputs: the kernels are rebuilt, the
+  // direct sums are not. Throws InputError when the text is malformed or has another node count.
+  static MassLoss from_nodes(const greybody::Table& greybody, ParticleSet particles, const MassLossOptions& options,
+                             const std::string& text);
+
   double alpha(double mass) const;  // GeV^4, from the table
   double f(double mass) const { return alpha(mass) / macgibbon_alpha_unit(); }
   // alpha summed directly over species (no interpolation), and each species' share of it.
@@ -69,6 +77,8 @@ class MassLoss {
   struct Tabulated;
 
  private:
+  MassLoss(const greybody::Table& greybody, ParticleSet particles, const MassLossOptions& options,
+           const std::string* nodes);
   ParticleSet particles_;
   MassLossOptions options_;
   std::shared_ptr<const std::vector<Kernel>> kernels_;  // by spin: 0, 1/2, 1, 2
