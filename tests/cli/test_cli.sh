@@ -250,6 +250,17 @@ stderr_has "run damaged cache" "0 from the cache"
 same_results "run damaged cache" "$work/run5"
 sed -e 's/top_mass: 172.57 GeV/top_mass: 172.0 GeV/' "$work/demo-small.yaml" >"$work/demo-top.yaml"
 grep -q 'top_mass: 172.0 GeV' "$work/demo-top.yaml" || fail "cache: the test scenario has no top_mass line to change"
+# Two processes starting at once on an empty cache: both finish, agree, and leave whole entries.
+"$ember" run "$work/demo-small.yaml" -o "$work/conc1" --no-plots --quiet --cache-dir "$work/cache2" >/dev/null 2>&1 &
+first=$!
+"$ember" run "$work/demo-small.yaml" -o "$work/conc2" --no-plots --quiet --cache-dir "$work/cache2" >/dev/null 2>&1 ||
+  fail "concurrent runs: the second failed"
+wait $first || fail "concurrent runs: the first failed"
+same_results "concurrent run 1" "$work/conc1"
+same_results "concurrent run 2" "$work/conc2"
+ls -a "$work/cache2" | grep -q '\.tmp\.' && fail "concurrent runs: temporary cache file left behind"
+run "run after concurrent" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/conc3" --no-plots --cache-dir "$work/cache2"
+stderr_has "run after concurrent" ", 0 built"
 run "run changed input" 0 -- "$ember" run "$work/demo-top.yaml" -o "$work/run6" --no-plots
 stderr_has "run changed input" "0 from the cache"
 # Kill and resume: 7 units (the central point and a 3 x 2 band, one prescription), killed (SIGKILL, nothing caught) once two are checkpointed,
