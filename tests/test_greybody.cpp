@@ -5,6 +5,7 @@
 #include <filesystem>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/input_file.hpp"
 #include "ember/greybody/emission.hpp"
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
@@ -202,5 +203,25 @@ TEST_CASE("malformed tables are rejected with the file and line") {
     CAPTURE(file);
     CHECK_THROWS_WITH_AS(load_table(dir / file), doctest::Contains(fragment), ember::InputError);
   }
-  CHECK_THROWS_WITH_AS(load_table(dir / "no-such.tsv"), doctest::Contains("cannot be read"), ember::InputError);
+  CHECK_THROWS_WITH_AS(load_table(dir / "no-such.tsv"), doctest::Contains("no such file"), ember::InputError);
+  CHECK_THROWS_WITH_AS(load_table(dir), doctest::Contains("is a directory"), ember::InputError);
+
+  // Damage found by fuzzing the reader (tests/fuzz/): each is refused with a message, not a crash.
+  const std::string good =
+      ember::read_input_file(source_dir / "tests/fuzz/corpus/greybody_table/seed_small.tsv", "a table", 1 << 20);
+  REQUIRE_NOTHROW(parse_table(good, "small.tsv"));
+  const auto damaged = [&](const std::string& from, const std::string& to) {
+    std::string t = good;
+    const auto at = t.find(from);
+    REQUIRE(at != std::string::npos);
+    return t.replace(at, from.size(), to);
+  };
+  CHECK_THROWS_WITH_AS(parse_table(damaged("# points_per_mode: 161", "# points_per_mode: 1e300"), "t.tsv"),
+                       doctest::Contains("points_per_mode 1e+300"), ember::InputError);
+  CHECK_THROWS_WITH_AS(parse_table(damaged("0.5\t0.5\t1.000000000000e-03", "0.5\t40.5\t1.000000000000e-03"), "t.tsv"),
+                       doctest::Contains("at most 30"), ember::InputError);
+  CHECK_THROWS_WITH_AS(parse_table(damaged("0.5\t0.5\t1.894186557945e-03", "0\t0\t1.894186557945e-03"), "t.tsv"),
+                       doctest::Contains("again"), ember::InputError);
+  CHECK_THROWS_WITH_AS(parse_table(damaged("# x_max: 5", "# x_max: -5"), "t.tsv"),
+                       doctest::Contains("0 < x_min < x_max"), ember::InputError);
 }

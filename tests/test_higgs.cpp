@@ -153,6 +153,23 @@ TEST_CASE("potential derivatives agree with finite differences") {
               1e-6));
 }
 
+TEST_CASE("the tabulated lambda_eff keeps within its stated interpolation error") {
+  // Derived: the stated error is the largest spline deviation at the nodes' midpoints plus the
+  // running's own midpoint error; it must also bound the deviation anywhere else in the table.
+  for (const bool cw : {false, true}) {
+    const StandardModelPotential sm(std::make_shared<const Running>(buttazzo()), {cw, 0, 0});
+    CAPTURE(cw);
+    CHECK(sm.interpolation_error() > 0);
+    CHECK(sm.interpolation_error() < 1e-6);
+    double worst = 0;
+    for (int i = 0; i <= 997; ++i) {
+      const double h = 200 * std::pow(1e19 / 200, i / 997.0);  // an off-grid sweep, M_t to 1e19 GeV
+      worst = std::max(worst, std::abs(sm.lambda_eff(h) - sm.lambda_eff_direct(h)));
+    }
+    CHECK(worst <= sm.interpolation_error());
+  }
+}
+
 TEST_CASE("user potential tables are read and checked") {
   const TabulatedPotential t(source_dir / "tests/data/potentials/quartic.tsv");
   // Derived: the test table holds V = lambda h^4 / 4 with lambda = 1, so V(3e9) = 8.1e37 / 4.

@@ -5,14 +5,17 @@
 #include <vector>
 
 #include "command.hpp"
+#include "ember/cli/guarded.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
 #include "ember/version.hpp"
 
 namespace ember::cli {
 
 void print_json(const nlohmann::ordered_json& object) {
-  std::cout << object.dump(2) << "\n";
+  require_finite_json(object, "the JSON on stdout");
+  std::cout << object.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
 }
 
 double quantity_option(const std::string& option, const std::string& text, units::Kind kind, units::Sign sign) {
@@ -62,10 +65,16 @@ int run(int argc, char** argv, ExecutorFactory factory) {
     return exit_bad_input;
   }
 
-  try {
+  return run_guarded([&] {
     for (const auto& command : commands)
       if (command.app->parsed()) return command.run();
     return report("internal error: ", "no command ran", exit_internal);
+  });
+}
+
+int run_guarded(const std::function<int()>& body) {
+  try {
+    return body();
   } catch (const InputError& e) {
     return report("", e.what(), exit_bad_input);
   } catch (const NumericalError& e) {

@@ -8,6 +8,7 @@
 #include "command.hpp"
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/text.hpp"
 #include "ember/tunnelling/action_table.hpp"
 #include "ember/tunnelling/rate.hpp"
@@ -188,23 +189,40 @@ int scan(const BounceOptions& o) {
       describe_model(o, c), name_of(c.prefactor), c.setup.semiclassical_floor / u::planck_mass);
   for (const Prescription p : c.prescriptions) csv += fmt::format(",B_{0},branching_{0},flags_{0}", name_of(p));
   csv += "\n";
+  // --json: the same rows as one object; B is null where no bubble forms.
+  nlohmann::ordered_json rows = nlohmann::ordered_json::array();
   for (long i = 0; i < *n; ++i) {
     const double m = from * std::pow(to / from, static_cast<double>(i) / static_cast<double>(*n - 1));
     csv += fmt::format("{:.8e},{:.8e}", m / u::planck_mass, m / u::gram);
+    nlohmann::ordered_json row{{"seed_mass_Mpl", m / u::planck_mass}, {"seed_mass_g", m / u::gram}};
     for (const Prescription p : c.prescriptions) {
       const ActionPoint a = action_at(p, c.setup, m);
       const Rates r = rates_at(a, *c.mass_loss, c.prefactor, c.setup.newton_G);
       csv += fmt::format(",{},{:.8e},{}", a.flags.no_decay ? std::string() : fmt::format("{:.10e}", a.action.value),
                          r.branching_ratio, fmt::join(a.flags.list(), ";"));
+      row[name_of(p)] = {{"B", a.flags.no_decay ? nlohmann::ordered_json() : nlohmann::ordered_json(a.action.value)},
+                         {"branching_ratio", r.branching_ratio},
+                         {"flags", a.flags.list()}};
     }
+    rows.push_back(std::move(row));
     csv += "\n";
   }
-  if (o.output.empty())
-    std::cout << csv;
-  else {
+  require_finite_text(csv, o.output.empty() ? "the bounce scan" : o.output);
+  if (!o.output.empty()) {
     write_file_atomically(o.output, csv);
     fmt::print(stderr, "wrote {} ({} seed masses)\n", o.output, *n);
   }
+  if (o.json)
+    print_json({{"potential", describe_model(o, c)},
+                {"prefactor", name_of(c.prefactor)},
+                {"semiclassical_floor_Mpl", c.setup.semiclassical_floor / u::planck_mass},
+                {"validity", fmt::format("semiclassical only for seeds above {:.3g} M_Pl; the constraint disappears "
+                                         "if new physics stabilises the potential",
+                                         c.setup.semiclassical_floor / u::planck_mass)},
+                {"output", o.output.empty() ? nlohmann::ordered_json() : nlohmann::ordered_json(o.output)},
+                {"rows", rows}});
+  else if (o.output.empty())
+    std::cout << csv;
   return exit_ok;
 }
 

@@ -9,6 +9,7 @@
 #include "command.hpp"
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/text.hpp"
 #include "ember/evaporation/budget.hpp"
 #include "ember/evaporation/trajectory.hpp"
@@ -178,7 +179,9 @@ int by_mass(const EvaporateOptions& o) {
   text += fmt::format("  integrated to {:.4g} g; analytic tail below ({:.3e} s)\n  model: {}\n",
                       tr.cutoff_mass() / u::gram, tr.tail_duration() / u::second, model_line(ml));
   if (!o.trajectory.empty()) {
-    write_file_atomically(o.trajectory, csv_trajectory(tr, o));
+    const std::string csv = csv_trajectory(tr, o);
+    require_finite_text(csv, o.trajectory);
+    write_file_atomically(o.trajectory, csv);
     j["trajectory_file"] = o.trajectory;
     text += fmt::format("  trajectory written to {}\n", o.trajectory);
   }

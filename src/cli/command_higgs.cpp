@@ -2,17 +2,29 @@
 // stability verdict and the unseeded decay probability of our past light cone.
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <cmath>
 #include <iostream>
+#include <optional>
 
 #include "command.hpp"
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/text.hpp"
 #include "ember/higgs/stability.hpp"
 
 namespace ember::cli {
 
 namespace {
+
+// log10 of the probability of at least one decay, P = 1 - e^{-N} (Poisson), from log10 N. For
+// N < 1e-10, P = N to 1 part in 1e10; computed through expm1 otherwise.
+std::optional<double> decay_probability(const std::optional<double>& log10_n) {
+  if (!log10_n) return std::nullopt;
+  if (*log10_n < -10) return *log10_n;
+  return std::log10(-std::expm1(-std::pow(10.0, std::min(*log10_n, 300.0))));
+}
 
 using namespace ember::higgs;
 
@@ -66,7 +78,11 @@ int higgs(const HiggsOptions& o) {
   for (const auto& w : warnings) fmt::print(stderr, "ember: warning: {}\n", w);
   const Couplings c = couplings_at_top(o.inputs);
 
-  if (!o.table.empty()) write_file_atomically(o.table, couplings_csv(pot));
+  if (!o.table.empty()) {
+    const std::string csv = couplings_csv(pot);
+    require_finite_text(csv, o.table);
+    write_file_atomically(o.table, csv);
+  }
   if (o.json) {
     print_json({{"inputs",
                  {{"top_mass_GeV", o.inputs.top_mass},
@@ -88,6 +104,7 @@ int higgs(const HiggsOptions& o) {
                 {"lambda_eff_min_scale_GeV", r.lambda_eff_min_scale},
                 {"verdict", name_of(r.verdict)},
                 {"log10_expected_decays", optional_json(r.log10_expected_decays)},
+                {"log10_decay_probability", optional_json(decay_probability(r.log10_expected_decays))},
                 {"bounce_scale_GeV", r.log10_expected_decays ? nlohmann::ordered_json(r.bounce_scale) : nullptr},
                 {"bounce_at_scan_edge", r.bounce_at_scan_edge},
                 {"critical_top_mass_GeV", optional_json(critical)},

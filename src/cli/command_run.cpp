@@ -59,6 +59,16 @@ int run(const RunOptions& o, const ExecutorFactory& factory) {
               << fmt::format("  results in {}: {}\n  {}\n", out.string(), fmt::join(written.files, ", "),
                              written.plots_note);
   }
+  // Failed points are in the outputs with their reasons; the exit code still says a solver
+  // failed, so scripts notice (exit 3, as for any numerical failure).
+  if (!results.failures.empty()) {
+    std::cout.flush();
+    std::cerr << fmt::format(
+        "ember: numerical failure at {} point(s) of the scan, recorded in {} (failed_points); "
+        "the other points' results are written. First: {}\n",
+        results.failures.size(), (out / "summary.json").string(), results.failures.front().reason);
+    return exit_numerical;
+  }
   return exit_ok;
 }
 

@@ -112,6 +112,24 @@ std::string format_real(double x) {
   return tidy_exponent(fmt::format("{:.17g}", x));
 }
 
+std::size_t utf8_length_at(std::string_view t, std::size_t i) {
+  const auto c = static_cast<unsigned char>(t[i]);
+  if (c < 0x80) return 1;
+  // A UTF-8 lead byte and its continuation bytes (RFC 3629: no overlong forms, <= U+10FFFF).
+  const std::size_t n = c >= 0xC2 && c <= 0xDF ? 2 : c >= 0xE0 && c <= 0xEF ? 3 : c >= 0xF0 && c <= 0xF4 ? 4 : 0;
+  bool ok = n > 0 && i + n <= t.size();
+  for (std::size_t k = 1; ok && k < n; ++k) ok = (static_cast<unsigned char>(t[i + k]) & 0xC0) == 0x80;
+  if (ok && n == 3) {
+    const auto c1 = static_cast<unsigned char>(t[i + 1]);
+    ok = !(c == 0xE0 && c1 < 0xA0) && !(c == 0xED && c1 >= 0xA0);
+  }
+  if (ok && n == 4) {
+    const auto c1 = static_cast<unsigned char>(t[i + 1]);
+    ok = !(c == 0xF0 && c1 < 0x90) && !(c == 0xF4 && c1 >= 0x90);
+  }
+  return ok ? n : 0;
+}
+
 std::string printable(std::string_view t) {
   std::string out;
   const auto escape = [&](unsigned char c) { out += fmt::format("\\x{:02X}", c); };
@@ -125,19 +143,8 @@ std::string printable(std::string_view t) {
       ++i;
       continue;
     }
-    // A UTF-8 lead byte and its continuation bytes (RFC 3629: no overlong forms, <= U+10FFFF).
-    const std::size_t n = c >= 0xC2 && c <= 0xDF ? 2 : c >= 0xE0 && c <= 0xEF ? 3 : c >= 0xF0 && c <= 0xF4 ? 4 : 0;
-    bool ok = n > 0 && i + n <= t.size();
-    for (std::size_t k = 1; ok && k < n; ++k) ok = (static_cast<unsigned char>(t[i + k]) & 0xC0) == 0x80;
-    if (ok && n == 3) {
-      const auto c1 = static_cast<unsigned char>(t[i + 1]);
-      ok = !(c == 0xE0 && c1 < 0xA0) && !(c == 0xED && c1 >= 0xA0);
-    }
-    if (ok && n == 4) {
-      const auto c1 = static_cast<unsigned char>(t[i + 1]);
-      ok = !(c == 0xF0 && c1 < 0x90) && !(c == 0xF4 && c1 >= 0x90);
-    }
-    if (ok) {
+    const std::size_t n = utf8_length_at(t, i);
+    if (n > 0) {
       out.append(t.substr(i, n));
       i += n;
     } else {

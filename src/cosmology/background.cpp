@@ -11,6 +11,7 @@
 
 #include "ember/core/embedded.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
 #include "ember/units/quantity.hpp"
@@ -168,6 +169,9 @@ double Background::scale_factor(double time) const {
 }
 
 double Background::lightcone_radius(double time) const {
+  // Module boundary (issue 9): the time a caller asks about must be finite.
+  require_finite(time, "cosmology: background", "time", "the past light cone of a decay",
+                 "a formation mass inside the scan's range (1e-6 g to 1e50 g)");
   const double a = scale_factor(time);
   const double u = std::log(a);
   // Before the first node (radiation era) the light travelled 1/(a H) since the big bang.

@@ -11,6 +11,7 @@
 #include <optional>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
 #include "ember/core/record.hpp"
 #include "ember/units/constants.hpp"
@@ -175,7 +176,11 @@ double MassLoss::alpha(double mass) const {
   const double u = std::log(mass);
   if (u <= table_->ln_m_lo) return table_->alpha_lo;
   if (u >= table_->ln_m_hi) return table_->alpha_hi;
-  return std::exp(gsl_spline_eval(table_->ln_alpha.get(), u, nullptr));
+  // Module boundary (issue 9): alpha leaves the evaporation module finite, or not at all.
+  return require_finite(
+      std::exp(gsl_spline_eval(table_->ln_alpha.get(), u, nullptr)), "evaporation: mass-loss table", "alpha(M)",
+      [&] { return fmt::format("M = {:.6e} g", mass / units::gram); },
+      "rebuilding the table (--no-cache) or a mass inside 1e-6 g to 1e50 g");
 }
 
 MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const MassLossOptions& options)

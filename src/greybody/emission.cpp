@@ -8,6 +8,7 @@
 #include <memory>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
 
 namespace ember::greybody {
@@ -64,7 +65,13 @@ Estimate thermal_moment(const std::function<Estimate(double)>& weighted_sum, boo
 Emission emission_per_dof(const Table& table, int twice_spin) {
   const std::function<Estimate(double)> s = [&](double x) { return table.weighted_sum(twice_spin, x); };
   const bool fermion = twice_spin % 2 == 1;
-  return {thermal_moment(s, fermion, 1), thermal_moment(s, fermion, 0)};
+  const Emission e{thermal_moment(s, fermion, 1), thermal_moment(s, fermion, 0)};
+  // Module boundary (issue 9): emission coefficients leave the greybody module finite.
+  const auto inputs = [&] { return fmt::format("spin {}/2", twice_spin); };
+  const char* hint = "rebuilding the greybody table (ember greybody --rebuild)";
+  require_finite(e.power.value, "greybody: thermal emission", "power per dof", inputs, hint);
+  require_finite(e.number.value, "greybody: thermal emission", "number rate per dof", inputs, hint);
+  return e;
 }
 
 }  // namespace ember::greybody

@@ -139,6 +139,11 @@ Transmission solve_transmission(const Mode& mode, double x, const SolverOptions&
   // exact answer. The tables' low-frequency end uses the analytic limit instead.
   if (x < 1e-20)
     throw InputError(fmt::format("greybody: x = {:.4g}: below the solver's range; expected x >= 1e-20", x));
+  if (x > tolerance::solver_max_x)
+    throw InputError(
+        fmt::format("greybody: x = {:.4g}: above the solver's range; expected x <= {:g} (far above the "
+                    "barrier, Gamma = 1; the table lookup covers it)",
+                    x, tolerance::solver_max_x));
 
   const std::vector<double> u = inverse_power_coefficients(mode, tolerance::series_max_terms + 2);
   const double r_match = matching_radius(u, x, options.series_truncation);

@@ -2,6 +2,7 @@
 #include "ember/greybody/table.hpp"
 
 #include <fmt/format.h>
+#include <gsl/gsl_errno.h>
 #include <gsl/gsl_spline.h>
 
 #include <algorithm>
@@ -42,11 +43,21 @@ std::shared_ptr<const Table::Curve> make_curve(const std::vector<TableRow>& rows
     c->solver_relative_error = std::max(c->solver_relative_error, r.error / r.transmission);
   }
   c->spline.reset(gsl_spline_alloc(gsl_interp_cspline, n), gsl_spline_free);
-  gsl_spline_init(c->spline.get(), ln_x.data(), logit.data(), n);
+  if (gsl_spline_init(c->spline.get(), ln_x.data(), logit.data(), n) != GSL_SUCCESS)
+    throw InputError(
+        fmt::format("greybody table: spin {}, 2l = {}: the spline through {} rows failed; expected "
+                    "increasing x",
+                    spin_text(first.twice_spin), first.twice_l, n));
   c->x_min = first.x;
   c->x_end = rows[end - 1].x;
   c->end_reflection = rows[end - 1].reflection;
   c->low_coefficient = first.transmission / std::pow(first.x, c->power);
+  if (!std::isfinite(c->low_coefficient) || !std::isfinite(c->solver_relative_error) ||
+      !std::all_of(logit.begin(), logit.end(), [](double v) { return std::isfinite(v); }))
+    throw InputError(
+        fmt::format("greybody table: spin {}, 2l = {}: rows starting at x = {} give a non-finite fit; "
+                    "expected transmissions and reflections of physical size",
+                    spin_text(first.twice_spin), first.twice_l, first.x));
   // d ln Gamma / d ln x = (1 - Gamma) dL/d ln x.
   const double slope = (1 - first.transmission) * gsl_spline_eval_deriv(c->spline.get(), ln_x[0], nullptr);
   c->low_relative_error = std::abs(slope - c->power);

@@ -5,10 +5,12 @@
 #include <filesystem>
 #include <fstream>
 #include <map>
+#include <set>
 #include <sstream>
 
 #include "ember/core/data_files.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/input_file.hpp"
 #include "ember/core/text.hpp"
 #include "ember/greybody/table.hpp"
 
@@ -24,11 +26,14 @@ Table load_default_table() {
 
 namespace {
 
+// Higher multipoles carry nothing at any x the table reaches (Gamma ~ x^(2l+2)); l above this is
+// a damaged file, and its power would overflow.
+constexpr double max_l = 30;
+
 constexpr const char* column_line = "spin\tl\tx\ttransmission\treflection\terror";
 
-[[noreturn]] void bad(const std::filesystem::path& file, int line, const std::string& what,
-                      const std::string& expected) {
-  throw InputError(fmt::format("{}:{}: {}; expected {}", file.string(), line, what, expected));
+[[noreturn]] void bad(const std::string& file, int line, const std::string& what, const std::string& expected) {
+  throw InputError(fmt::format("{}:{}: {}; expected {}", file, line, printable(what), expected));
 }
 
 std::vector<std::string> split_tabs(const std::string& line) {
@@ -41,18 +46,21 @@ std::vector<std::string> split_tabs(const std::string& line) {
 
 }  // namespace
 
+// The shipped table is ~200 kB; a table a thousand times denser still fits.
+constexpr std::uintmax_t max_table_bytes = 256u << 20;
+
 Table load_table(const std::filesystem::path& file) {
-  if (std::filesystem::is_directory(file))
-    throw InputError(fmt::format("{}: is a directory; expected a greybody table file", file.string()));
-  std::ifstream in(file);
-  if (!in)
-    throw InputError(
-        fmt::format("{}: cannot be read; expected the greybody table (rebuild it with `ember greybody "
-                    "--rebuild`)",
-                    file.string()));
+  return parse_table(
+      read_input_file(file, "the greybody table (rebuild it with `ember greybody --rebuild`)", max_table_bytes),
+      file.string());
+}
+
+Table parse_table(std::string_view text, const std::string& file) {
+  std::istringstream in{std::string(text)};
   TableHeader header;
   std::map<std::string, double> keys;
   std::vector<TableRow> rows;
+  std::set<std::pair<int, int>> modes_seen;
   std::string line;
   int number = 0;
   bool columns_seen = false;
@@ -81,17 +89,22 @@ Table load_table(const std::filesystem::path& file) {
         bad(file, number, fmt::format("field {} is \"{}\"", i + 1, f[static_cast<std::size_t>(i)]), "a finite number");
       v[i] = *x;
     }
-    const int ts = static_cast<int>(std::lround(2 * v[0])), tl = static_cast<int>(std::lround(2 * v[1]));
+    const int ts = std::abs(v[0]) <= 2 ? static_cast<int>(std::lround(2 * v[0])) : -1;
+    const int tl = std::abs(v[1]) <= max_l ? static_cast<int>(std::lround(2 * v[1])) : -1;
     if (2 * v[0] != ts || (ts != 0 && ts != 1 && ts != 2 && ts != 4))
       bad(file, number, fmt::format("spin {}", f[0]), "0, 0.5, 1 or 2");
-    if (2 * v[1] != tl || tl < ts || (tl - ts) % 2 != 0)
-      bad(file, number, fmt::format("l {} for spin {}", f[1], f[0]), "l >= s, in integer steps from s");
+    if (!(v[1] >= 0 && v[1] <= max_l) || 2 * v[1] != tl || tl < ts || (tl - ts) % 2 != 0)
+      bad(file, number, fmt::format("l {} for spin {}", f[1], f[0]),
+          fmt::format("l >= s, in integer steps from s, at most {}", max_l));
     if (!(v[2] > 0)) bad(file, number, fmt::format("x {}", f[2]), "x > 0");
     if (!(v[3] > 0 && v[3] <= 1 + 1e-6)) bad(file, number, fmt::format("transmission {}", f[3]), "0 < Gamma <= 1");
     if (!(v[4] > 0 && v[4] <= 1)) bad(file, number, fmt::format("reflection {}", f[4]), "0 < |R|^2 <= 1");
     if (!(v[5] >= 0)) bad(file, number, fmt::format("error {}", f[5]), "an error >= 0");
-    if (!rows.empty() && rows.back().twice_spin == ts && rows.back().twice_l == tl && !(v[2] > rows.back().x))
+    const bool same_mode = !rows.empty() && rows.back().twice_spin == ts && rows.back().twice_l == tl;
+    if (same_mode && !(std::log(v[2]) > std::log(rows.back().x)))
       bad(file, number, fmt::format("x {} after {}", f[2], rows.back().x), "x increasing within a mode");
+    if (!same_mode && !modes_seen.insert({ts, tl}).second)
+      bad(file, number, fmt::format("spin {}, l {} again", f[0], f[1]), "each mode's rows together, once");
     rows.push_back({ts, tl, v[2], v[3], v[4], v[5]});
   }
   if (rows.empty()) bad(file, number, "no rows", "the greybody table's rows");
@@ -100,13 +113,23 @@ Table load_table(const std::filesystem::path& file) {
       bad(file, 1, fmt::format("no \"# {}:\" header line", key), "the header the table was written with");
   header.x_min = keys["x_min"];
   header.x_max = keys["x_max"];
-  header.points_per_mode = static_cast<int>(keys["points_per_mode"]);
+  if (!(header.x_min > 0 && header.x_max > header.x_min))
+    bad(file, 1, fmt::format("x_min {}, x_max {}", header.x_min, header.x_max), "0 < x_min < x_max");
+  const double points = keys["points_per_mode"];
+  if (!(points >= 4 && points <= 1e6 && points == std::floor(points)))
+    bad(file, 1, fmt::format("points_per_mode {}", points), "a whole number from 4 to 1000000");
+  header.points_per_mode = static_cast<int>(points);
   header.solver_tolerance = keys["solver_tolerance"];
   header.interpolation_error = keys["interpolation_error"];
+  if (!(header.solver_tolerance > 0 && header.solver_tolerance < 1 && header.interpolation_error >= 0 &&
+        header.interpolation_error < 1))
+    bad(file, 1,
+        fmt::format("solver_tolerance {}, interpolation_error {}", header.solver_tolerance, header.interpolation_error),
+        "a solver_tolerance in (0, 1) and an interpolation_error in [0, 1)");
   try {
     return Table(header, std::move(rows));
   } catch (const InputError& e) {
-    throw InputError(fmt::format("{}: {}", file.string(), e.what()));
+    throw InputError(fmt::format("{}: {}", file, e.what()));
   }
 }
 

@@ -5,6 +5,8 @@
 #include <cmath>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
+#include "ember/units/constants.hpp"
 
 namespace ember::population {
 
@@ -17,6 +19,13 @@ Response response_at(double mass, const tunnelling::ActionTable& table, const Re
   r.hubble_per_beta = hubble_decays_per_beta(r.formation, r.decay, *c.background);
   r.f_per_beta = f_pbh_per_beta(r.formation, *c.background);
   r.count_per_beta = lightcone_count_per_beta(r.formation, *c.background);
+  // Module boundary (issue 9): a response leaves the population module finite.
+  const auto inputs = [&] { return fmt::format("formation mass {:.6e} g", mass / units::gram); };
+  const char* hint = "a formation mass nearer the scan's other rows, or more decay_grid_points";
+  require_finite(r.lightcone_per_beta, "population: decays per beta", "N_lightcone / beta", inputs, hint);
+  require_finite(r.hubble_per_beta, "population: decays per beta", "N_hubble / beta", inputs, hint);
+  require_finite(r.f_per_beta, "population: abundance conversion", "f_PBH / beta", inputs, hint);
+  require_finite(r.count_per_beta, "population: abundance conversion", "holes in the light cone / beta", inputs, hint);
   return r;
 }
 

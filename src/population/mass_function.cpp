@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/input_file.hpp"
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
 #include "ember/units/quantity.hpp"
@@ -95,7 +96,7 @@ class Tabulated final : public MassFunction {
       const double s = (psi_[i + 1] - psi_[i]) / (ln_m_[i + 1] - ln_m_[i]);
       total += std::exp(ln_m_[i + 1]) * (psi_[i + 1] - s) - std::exp(ln_m_[i]) * (psi_[i] - s);
     }
-    if (!(total > 0))
+    if (!(total > 0) || !std::isfinite(total))
       throw InputError(fmt::format("{}: psi integrates to {}; expected a positive total", file_, total));
     for (double& p : psi_) p /= total;
     spline_.reset(gsl_spline_alloc(gsl_interp_linear, ln_m_.size()), gsl_spline_free);
@@ -132,10 +133,18 @@ std::unique_ptr<MassFunction> critical_collapse(double mf, double k) {
   return std::make_unique<CriticalCollapse>(mf, k);
 }
 
+namespace {
+// A mass-function table has a few thousand rows; this is room for a million.
+constexpr std::uintmax_t max_table_bytes = 64u << 20;
+}  // namespace
+
 std::unique_ptr<MassFunction> tabulated(const std::string& file, const std::string& unit) {
+  return tabulated_text(read_input_file(file, "a mass-function table (mass, psi)", max_table_bytes), file, unit);
+}
+
+std::unique_ptr<MassFunction> tabulated_text(std::string_view text, const std::string& file, const std::string& unit) {
   const double factor = units::parse_quantity("1 " + unit, units::mass).value;
-  std::ifstream in(file);
-  if (!in) throw InputError(fmt::format("{}: cannot be read; expected a mass-function table (mass, psi)", file));
+  std::istringstream in{std::string(text)};
   std::vector<double> ln_m, psi;
   std::string line;
   for (int n = 1; std::getline(in, line); ++n) {
@@ -146,12 +155,17 @@ std::unique_ptr<MassFunction> tabulated(const std::string& file, const std::stri
     f >> a >> b;
     const auto m = parse_real(a), p = parse_real(b);
     if (!m || !p || (f >> extra) || !(*m > 0) || *p < 0)
-      throw InputError(fmt::format("{}:{}: \"{}\"; expected a mass > 0 ({}) and psi >= 0", file, n, t, unit));
-    if (!ln_m.empty() && !(std::log(*m * factor) > ln_m.back()))
       throw InputError(
-          fmt::format("{}:{}: mass {} not above the previous row; expected increasing masses", file, n, a));
-    ln_m.push_back(std::log(*m * factor));
-    psi.push_back(*p / factor);  // psi per GeV
+          fmt::format("{}:{}: \"{}\"; expected a mass > 0 ({}) and psi >= 0", file, n, printable(t), unit));
+    const double u = std::log(*m * factor), per_gev = *p / factor;
+    if (!std::isfinite(u) || !std::isfinite(per_gev))
+      throw InputError(fmt::format("{}:{}: \"{}\" overflows in GeV; expected a mass and psi of physical size", file, n,
+                                   printable(t)));
+    if (!ln_m.empty() && !(u > ln_m.back()))
+      throw InputError(
+          fmt::format("{}:{}: mass {} not above the previous row; expected increasing masses", file, n, printable(a)));
+    ln_m.push_back(u);
+    psi.push_back(per_gev);
   }
   if (ln_m.size() < 2) throw InputError(fmt::format("{}: {} rows; expected at least 2", file, ln_m.size()));
   return std::make_unique<Tabulated>(std::move(ln_m), std::move(psi), file);

@@ -9,6 +9,7 @@
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/data_files.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/core/hash.hpp"
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
@@ -80,11 +81,14 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const scenario::Jo
        fmt::format(
            "band: beta_max envelope over {} Higgs-input point(s); band_without counts points with no constraint",
            r.band.size()),
-       "empty cell: no decays there, no constraint"});
+       "empty cell: no constraint there (no decays, or even beta = 1 gives fewer decays than the limit)",
+       "failed_<prescription> = 1: a solver failed at this row (summary.json failed_points says why); its cells "
+       "are empty"});
   out += "mass_g,width";
   for (const auto& o : r.outcomes) out += fmt::format(",beta_max_{0},f_max_{0}", tunnelling::name_of(o.prescription));
   for (const auto& o : r.outcomes)
     out += fmt::format(",band_low_{0},band_high_{0},band_without_{0}", tunnelling::name_of(o.prescription));
+  for (const auto& o : r.outcomes) out += fmt::format(",failed_{}", tunnelling::name_of(o.prescription));
   out += "\n";
   const std::size_t rows = r.outcomes.empty() ? 0 : r.outcomes.front().curve.size();
   for (std::size_t i = 0; i < rows; ++i) {
@@ -93,6 +97,7 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const scenario::Jo
     for (const auto& o : r.outcomes) out += fmt::format(",{},{}", cell(o.curve[i].beta_max), cell(o.curve[i].f_max));
     for (const auto& o : r.outcomes)
       out += fmt::format(",{},{},{}", cell(o.curve[i].band_low), cell(o.curve[i].band_high), o.curve[i].band_without);
+    for (const auto& o : r.outcomes) out += o.curve[i].failed ? ",1" : ",0";
     out += "\n";
   }
   return out;
@@ -197,14 +202,16 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
   ordered_json ps = ordered_json::object();
   for (const auto& o : r.outcomes) {
     const double evaporated_share = o.counts.lightcone > 0 ? o.counts.from_evaporated / o.counts.lightcone : 0.0;
-    ps[tunnelling::name_of(o.prescription)] = {{"N_lightcone", o.counts.lightcone},
-                                               {"N_hubble", o.counts.hubble},
-                                               {"survival_probability", o.survival},
-                                               {"excluded", o.excluded},
-                                               {"abundance", {{"beta", o.counts.beta}, {"f_pbh", o.counts.f_pbh}}},
-                                               {"share_from_evaporated_holes", evaporated_share},
-                                               {"assumptions", tunnelling::assumptions(o.prescription)},
-                                               {"table", o.table_summary}};
+    ps[tunnelling::name_of(o.prescription)] = {
+        {"N_lightcone", o.counts.lightcone},
+        {"N_hubble", o.counts.hubble},
+        {"survival_probability", o.survival},
+        {"excluded", o.excluded},
+        {"abundance", {{"beta", o.counts.beta}, {"f_pbh", o.counts.f_pbh}}},
+        {"share_from_evaporated_holes", evaporated_share},
+        {"assumptions", tunnelling::assumptions(o.prescription)},
+        {"table", o.table_summary},
+        {"failure", o.failure.empty() ? ordered_json(nullptr) : ordered_json(o.failure)}};
   }
   j["prescriptions"] = ps;
   const Tightest t = tightest(r);
@@ -223,8 +230,18 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
                     {"lambda8", b.point.lambda8},
                     {"verdict", higgs::name_of(b.verdict)},
                     {"constraint", b.constraint},
-                    {"log10_unseeded_expected_decays", number_or_null(b.log10_unseeded)}});
+                    {"log10_unseeded_expected_decays", number_or_null(b.log10_unseeded)},
+                    {"failed", b.failed}});
   j["band"] = band;
+  // Every point where a solver failed, with its reason; the rest of the scan went on without it.
+  ordered_json failed = ordered_json::array();
+  for (const auto& f : r.failures)
+    failed.push_back({{"band_point", r.band[f.point].point.label},
+                      {"prescription", f.prescription.empty() ? ordered_json(nullptr) : ordered_json(f.prescription)},
+                      {"mass_g", f.mass ? ordered_json(*f.mass / u::gram) : ordered_json(nullptr)},
+                      {"width", f.width ? ordered_json(*f.width) : ordered_json(nullptr)},
+                      {"reason", f.reason}});
+  j["failed_points"] = failed;
   j["survivors"] = {{"mass_g", r.survivors_mass / u::gram},
                     {"note",
                      "holes formed heavier than this survive today; their constraint comes only from the "
@@ -245,17 +262,28 @@ std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobR
                          : "",
                      r.stability->log10_expected_decays ? fmt::format("{:.1f}", *r.stability->log10_expected_decays)
                                                         : std::string("none"));
+  if (r.stability && r.stability->log10_expected_decays && *r.stability->log10_expected_decays > 0)
+    t += fmt::format(
+        "  warning: with no black holes at all the vacuum would already have decayed in our past light cone "
+        "(log10 N = {:.1f}): these Standard Model inputs are excluded on their own, whatever the population\n",
+        *r.stability->log10_expected_decays);
   if (r.no_constraint) t += fmt::format("  no constraint: {}\n", r.no_constraint_reason);
   t += fmt::format("  {:<14} {:>14} {:>16}  {}\n", "prescription", "N_lightcone", "survival e^-N", "verdict");
   for (const auto& o : r.outcomes)
     t += fmt::format("  {:<14} {:>14.4e} {:>16.4e}  {}\n", tunnelling::name_of(o.prescription), o.counts.lightcone,
-                     o.survival, o.excluded ? "EXCLUDED" : "allowed");
+                     o.survival,
+                     !o.failure.empty() ? "FAILED"
+                     : o.excluded       ? "EXCLUDED"
+                                        : "allowed");
+  if (!r.failures.empty())
+    t += fmt::format("  failed points: {} (in summary.json failed_points; the rest of the scan went on); first: {}\n",
+                     r.failures.size(), r.failures.front().reason);
   const Tightest best = tightest(r);
   if (best.found)
     t += fmt::format("  most constraining: {} at {:.4g} g: beta_max = {:.4e} (f_max = {:.4e})\n", best.prescription,
                      best.mass / u::gram, best.beta, best.f);
   else
-    t += "  most constraining: none (no decays anywhere on the scan)\n";
+    t += "  most constraining: none (no bound below beta = 1 anywhere on the scan)\n";
   for (const auto& c : cautions(l.scenario)) t += "  caution: " + c + "\n";
   return t;
 }
@@ -264,17 +292,29 @@ Written write_outputs(const scenario::LoadedScenario& l, const scenario::JobResu
                       const std::filesystem::path& dir, bool plots) {
   Written w;
   const scenario::Scenario& s = l.scenario;
-  const auto put = [&](const char* name, const std::string& text) {
-    write_file_atomically(dir / name, text);
-    w.files.emplace_back(name);
-  };
-  if (wants(s, "summary")) put("summary.json", summary_json(l, r).dump(2) + "\n");
-  if (wants(s, "constraint")) put("constraint.csv", constraint_csv(l, r));
-  if (wants(s, "decay")) put("decay.csv", decay_csv(l, r));
-  if (wants(s, "resolved")) put("resolved.yaml", scenario::resolved_yaml(l));
+  // Every text is built and checked (no NaN or inf anywhere) before the first is written, so a
+  // failure leaves no partial set of results.
+  std::vector<std::pair<std::string, std::string>> texts;
+  if (wants(s, "summary")) {
+    const nlohmann::ordered_json summary = summary_json(l, r);
+    require_finite_json(summary, "summary.json");
+    // Invalid UTF-8 cannot reach here (the loader refuses it); replace rather than throw regardless.
+    texts.emplace_back("summary.json", summary.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
+  }
+  if (wants(s, "constraint")) texts.emplace_back("constraint.csv", constraint_csv(l, r));
+  if (wants(s, "decay")) texts.emplace_back("decay.csv", decay_csv(l, r));
+  if (wants(s, "resolved")) texts.emplace_back("resolved.yaml", scenario::resolved_yaml(l));
   if (wants(s, "plots")) {
-    put("rates.csv", rates_csv(l, r));
-    if (!r.plot_field.empty()) put("potential.csv", potential_csv(l, r));
+    texts.emplace_back("rates.csv", rates_csv(l, r));
+    if (!r.plot_field.empty()) texts.emplace_back("potential.csv", potential_csv(l, r));
+  }
+  for (const auto& [name, text] : texts)
+    if (name != "summary.json" && name != "resolved.yaml") require_finite_text(text, name);
+  for (const auto& [name, text] : texts) {
+    write_file_atomically(dir / name, text);
+    w.files.push_back(name);
+  }
+  if (wants(s, "plots")) {
     const std::filesystem::path script = data_directory() / ".." / "scripts" / "plot";
     if (!plots) {
       w.plots_note = "plots skipped (--no-plots)";

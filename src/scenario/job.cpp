@@ -88,7 +88,15 @@ struct PointModel {
   const higgs::StandardModelPotential* sm = nullptr;
   std::optional<higgs::StabilityReport> stability;
   std::optional<std::string> no_decay;  // why there is no constraint at this point
+  std::optional<std::string> failure;   // a solver failed building this point's potential
 };
+
+// A solver's message as one line, for the unit records.
+std::string one_line(std::string text) {
+  for (char& c : text)
+    if (c == '\n' || c == '\r') c = ' ';
+  return text;
+}
 
 PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
   PointModel m;
@@ -99,7 +107,7 @@ PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
     m.sm = pot.get();
     m.stability = higgs::analyse_stability(*pot);
     if (m.stability->verdict == higgs::Verdict::stable)
-      m.no_decay = "the potential is stable for these inputs: no constraint";
+      m.no_decay = "the Higgs potential is stable for these inputs (lambda_eff stays positive up to the Planck scale)";
     m.potential = std::move(pot);
     return m;
   }
@@ -192,7 +200,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   const std::vector<HiggsPoint> points = higgs_points(s.standard_model, s.scan);
   const std::size_t n_presc = s.tunnelling.prescriptions.size();
   for (const Prescription p : s.tunnelling.prescriptions)
-    out.outcomes.push_back({p, {}, 1.0, false, {}, {}, "", {}, {}});
+    out.outcomes.push_back({p, {}, 1.0, false, {}, {}, "", {}, {}, ""});
   for (int i = 0; i < o.plot_points; ++i)
     out.plot_masses.push_back(s.tunnelling.semiclassical_floor *
                               std::pow(1e10, static_cast<double>(i) / (o.plot_points - 1)));
@@ -200,7 +208,17 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   // Every Higgs point's potential and verdict, then every (point, prescription) unit: independent
   // work, each writing only its own slot, so the results do not depend on the thread count.
   std::vector<PointModel> models(points.size());
-  parallel_for(points.size(), o.threads, [&](std::size_t i) { models[i] = model_for(points[i], s.standard_model); });
+  parallel_for(points.size(), o.threads, [&](std::size_t i) {
+    try {
+      models[i] = model_for(points[i], s.standard_model);
+    } catch (const NumericalError& e) {
+      // The central point's failure ends the run (nothing can be reported without it); a band
+      // point's is recorded and the others go on (issue 9).
+      if (points[i].central) throw;
+      models[i] = PointModel{};
+      models[i].failure = one_line(e.what());
+    }
+  });
 
   // Each unit is a pure function of its index, returned as exact text: the same numbers whether
   // it ran here, on another thread, on another MPI rank or in an earlier, interrupted run.
@@ -212,54 +230,77 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     UnitResult unit;
     unit.beta_max.assign(rows.size(), std::nullopt);
     unit.f_max.assign(rows.size(), std::nullopt);
-    if (!(model.no_decay && p != Prescription::thin_wall)) {
-      tunnelling::TunnellingSetup setup;
-      setup.potential = model.potential.get();
-      setup.standard_model = model.sm;
-      if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
-        setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
-      setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
-      setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
-      const tunnelling::CachedTable cached =
-          tunnelling::cached_action_table(p, setup, table_options, o.cache_directory);
-      const tunnelling::ActionTable& table = cached.table;
-      unit.cache_hit = cached.hit;
-      std::vector<population::Response> grid;
-      if (!base->monochromatic()) grid = population::response_grid(lo, hi, o.responses_per_decade, table, context);
-      for (std::size_t r = 0; r < rows.size(); ++r) {
-        if (base->monochromatic()) {
-          const population::Response resp = population::response_at(rows[r].first, table, context);
-          if (resp.lightcone_per_beta > 0) {
-            unit.beta_max[r] = s.exclusion.max_decays / resp.lightcone_per_beta;
-            unit.f_max[r] = *unit.beta_max[r] * resp.f_per_beta;
+    if (model.failure) {
+      unit.failure = *model.failure;
+      return to_text(unit);
+    }
+    try {
+      if (!(model.no_decay && p != Prescription::thin_wall)) {
+        tunnelling::TunnellingSetup setup;
+        setup.potential = model.potential.get();
+        setup.standard_model = model.sm;
+        if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
+          setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
+        setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
+        setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
+        const tunnelling::CachedTable cached =
+            tunnelling::cached_action_table(p, setup, table_options, o.cache_directory);
+        const tunnelling::ActionTable& table = cached.table;
+        unit.cache_hit = cached.hit;
+        std::vector<population::Response> grid;
+        if (!base->monochromatic()) grid = population::response_grid(lo, hi, o.responses_per_decade, table, context);
+        for (std::size_t r = 0; r < rows.size(); ++r) try {
+            if (o.before_row) o.before_row(point, k, r);
+            if (base->monochromatic()) {
+              const population::Response resp = population::response_at(rows[r].first, table, context);
+              if (resp.lightcone_per_beta > 0) {
+                unit.beta_max[r] = s.exclusion.max_decays / resp.lightcone_per_beta;
+                unit.f_max[r] = *unit.beta_max[r] * resp.f_per_beta;
+              }
+              if (central) unit.scan.push_back(resp);
+            } else {
+              const double per_f = population::lightcone_per_amplitude(*row_spectra[r], grid);
+              if (per_f > 0) {
+                unit.f_max[r] = s.exclusion.max_decays / per_f;
+                unit.beta_max[r] = *unit.f_max[r] / population::f_pbh_per_beta(
+                                                        population::formation_of(
+                                                            rows[r].first, s.population.collapse_fraction, background),
+                                                        background);
+              }
+            }
+            // beta <= 1 by definition (an energy fraction): a bound at or above 1 means even a universe
+            // made of these holes decays fewer than max_decays times, so nothing is constrained.
+            if (unit.beta_max[r] && !(*unit.beta_max[r] < 1)) unit.beta_max[r] = unit.f_max[r] = std::nullopt;
+          } catch (const NumericalError& e) {
+            // Recorded with its reason; the other rows go on (issue 9).
+            unit.beta_max[r] = unit.f_max[r] = std::nullopt;
+            unit.row_failures.resize(rows.size());
+            unit.row_failures[r] = one_line(e.what());
           }
-          if (central) unit.scan.push_back(resp);
-        } else {
-          const double per_f = population::lightcone_per_amplitude(*row_spectra[r], grid);
-          if (per_f > 0) {
-            unit.f_max[r] = s.exclusion.max_decays / per_f;
-            unit.beta_max[r] =
-                *unit.f_max[r] /
-                population::f_pbh_per_beta(
-                    population::formation_of(rows[r].first, s.population.collapse_fraction, background), background);
+        if (central) {
+          if (o.before_row) o.before_row(point, k, rows.size());
+          // The scenario's own abundance, and Gamma_D / Gamma_H for the plot.
+          std::vector<population::Response> own = base->monochromatic()
+                                                      ? std::vector<population::Response>{population::response_at(
+                                                            base->characteristic_mass(), table, context)}
+                                                      : grid;
+          unit.counts = population::counts_for(*base, measure_of(s.population.abundance.measure),
+                                               s.population.abundance.value, own);
+          if (!base->monochromatic()) unit.scan = grid;
+          unit.table_summary = table.summary().message;
+          for (const double m : out.plot_masses) {
+            const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), mass_loss, s.tunnelling.prefactor);
+            unit.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
           }
         }
       }
-      if (central) {
-        // The scenario's own abundance, and Gamma_D / Gamma_H for the plot.
-        std::vector<population::Response> own = base->monochromatic()
-                                                    ? std::vector<population::Response>{population::response_at(
-                                                          base->characteristic_mass(), table, context)}
-                                                    : grid;
-        unit.counts = population::counts_for(*base, measure_of(s.population.abundance.measure),
-                                             s.population.abundance.value, own);
-        if (!base->monochromatic()) unit.scan = grid;
-        unit.table_summary = table.summary().message;
-        for (const double m : out.plot_masses) {
-          const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), mass_loss, s.tunnelling.prefactor);
-          unit.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
-        }
-      }
+    } catch (const NumericalError& e) {
+      // The whole unit failed (its B(M) table, or the scenario's own counts): recorded, and the
+      // other units go on (issue 9).
+      unit = UnitResult{};
+      unit.beta_max.assign(rows.size(), std::nullopt);
+      unit.f_max.assign(rows.size(), std::nullopt);
+      unit.failure = one_line(e.what());
     }
     return to_text(unit);
   };
@@ -304,23 +345,47 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     const PointModel& model = models[point];
     BandPoint bp{points[point], model.stability ? model.stability->verdict : higgs::Verdict::metastable, false,
                  model.stability ? model.stability->log10_expected_decays : std::nullopt};
+    if (model.failure) {
+      bp.failed = true;
+      out.failures.push_back({point, "", std::nullopt, std::nullopt, *model.failure});
+    }
     for (std::size_t k = 0; k < n_presc; ++k) {
       const UnitResult& unit = units[point * n_presc + k];
+      const std::string presc = name_of(s.tunnelling.prescriptions[k]);
+      if (!unit.failure.empty() && !model.failure) {
+        bp.failed = true;
+        out.failures.push_back({point, presc, std::nullopt, std::nullopt, unit.failure});
+      }
+      const auto row_failed = [&](std::size_t r) {
+        return r < unit.row_failures.size() && !unit.row_failures[r].empty();
+      };
       for (std::size_t r = 0; r < rows.size(); ++r) {
         band_values[k][r].push_back(unit.beta_max[r]);
         bp.constraint |= unit.beta_max[r].has_value();
+        if (row_failed(r)) {
+          bp.failed = true;
+          out.failures.push_back({point, presc, rows[r].first, rows[r].second, unit.row_failures[r]});
+        }
       }
       if (!points[point].central) continue;
       PrescriptionOutcome& outcome = out.outcomes[k];
       for (std::size_t r = 0; r < rows.size(); ++r)
-        outcome.curve.push_back(
-            {rows[r].first, rows[r].second.value_or(0), unit.beta_max[r], unit.f_max[r], {}, {}, 0});
+        outcome.curve.push_back({rows[r].first,
+                                 rows[r].second.value_or(0),
+                                 unit.beta_max[r],
+                                 unit.f_max[r],
+                                 {},
+                                 {},
+                                 0,
+                                 row_failed(r) || !unit.failure.empty()});
       outcome.scan = unit.scan;
       outcome.counts = unit.counts;
       outcome.survival = std::exp(-unit.counts.lightcone);
       outcome.excluded = unit.counts.lightcone > s.exclusion.max_decays;
       outcome.table_summary = unit.table_summary;
       outcome.plot_ratio = unit.plot_ratio;
+      outcome.failure = unit.failure;
+      if (!unit.failure.empty()) outcome.excluded = false;
     }
     if (points[point].central) {
       out.potential = model.potential->description();

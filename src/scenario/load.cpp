@@ -1,11 +1,16 @@
 #include "ember/scenario/load.hpp"
 
 #include <fmt/format.h>
+#include <yaml-cpp/depthguard.h>
 
 #include <fstream>
 #include <sstream>
 
+#include "ember/core/input_file.hpp"
 #include "ember/core/text.hpp"
+#include "ember/cosmology/degrees_of_freedom.hpp"
+#include "ember/higgs/potential.hpp"
+#include "ember/population/mass_function.hpp"
 #include "ember/version.hpp"
 
 namespace ember::scenario {
@@ -16,21 +21,7 @@ namespace {
 constexpr std::uintmax_t max_scenario_bytes = 4u << 20;
 
 std::string read_text(const std::filesystem::path& file) {
-  std::error_code ec;
-  const auto status = std::filesystem::status(file, ec);
-  if (ec || !std::filesystem::exists(status))
-    throw InputError(fmt::format("{}: no such file; expected a scenario file (.yaml)", file.string()));
-  if (std::filesystem::is_directory(status))
-    throw InputError(fmt::format("{}: is a directory; expected a scenario file (.yaml)", file.string()));
-  const auto size = std::filesystem::file_size(file, ec);
-  if (!ec && size > max_scenario_bytes)
-    throw InputError(
-        fmt::format("{}: {} bytes; expected a scenario file under {} bytes", file.string(), size, max_scenario_bytes));
-  std::ifstream in(file, std::ios::binary);
-  if (!in) throw InputError(fmt::format("{}: cannot be read; expected a readable scenario file", file.string()));
-  std::ostringstream text;
-  text << in.rdbuf();
-  return text.str();
+  return read_input_file(file, "a scenario file (.yaml)", max_scenario_bytes);
 }
 
 Diagnostic document_error(const std::string& label, const YAML::Mark& mark, std::string problem, std::string expected) {
@@ -44,15 +35,127 @@ Diagnostic document_error(const std::string& label, const YAML::Mark& mark, std:
   return d;
 }
 
+// Guards against hostile documents (a YAML bomb): deeper nesting than any scenario has, or
+// anchors and aliases that expand to more values than any scenario needs. The walk stops at the
+// first limit, so the cost is bounded by the limits, not by the expansion.
+constexpr int max_document_depth = 32;        // the schema is at most 4 levels deep
+constexpr long max_document_values = 100000;  // the largest scenarios hold a few hundred values
+
+void check_document_size(const YAML::Node& root, const std::string& label) {
+  struct Item {
+    YAML::Node node;
+    int depth;
+  };
+  std::vector<Item> stack{{root, 1}};
+  long values = 0;
+  while (!stack.empty()) {
+    const Item item = stack.back();
+    stack.pop_back();
+    if (++values > max_document_values)
+      throw ScenarioError({document_error(label, item.node.Mark(),
+                                          fmt::format("the document expands to more than {} values (anchors repeated "
+                                                      "through aliases?)",
+                                                      max_document_values),
+                                          "a scenario of at most a few thousand values")});
+    if (item.depth > max_document_depth)
+      throw ScenarioError({document_error(label, item.node.Mark(),
+                                          fmt::format("values nested more than {} levels deep", max_document_depth),
+                                          "a scenario (its sections nest at most 4 levels deep)")});
+    if (item.node.IsSequence())
+      for (const auto& child : item.node) stack.push_back({child, item.depth + 1});
+    else if (item.node.IsMap())
+      for (const auto& kv : item.node) {
+        stack.push_back({kv.first, item.depth + 1});
+        stack.push_back({kv.second, item.depth + 1});
+      }
+  }
+}
+
+// YAML streams hold printable characters only (YAML 1.2, sec. 5.1, c-printable): of the C0
+// controls, tab, line feed and carriage return. yaml-cpp 0.7 can loop without bound, allocating
+// as it goes, on a NUL byte inside a block (found by fuzzing, tests/fuzz/regressions/scenario),
+// so any other control byte is refused before yaml-cpp sees the text.
+void check_printable(std::string_view text, const std::string& label) {
+  int line = 1, column = 1;
+  const auto refuse = [&](std::string problem, std::string expected) {
+    YAML::Mark mark;
+    mark.line = line - 1;
+    mark.column = column - 1;
+    throw ScenarioError({document_error(label, mark, std::move(problem), std::move(expected))});
+  };
+  for (std::size_t i = 0; i < text.size();) {
+    const char c = text[i];
+    const auto byte = static_cast<unsigned char>(c);
+    if ((byte < 0x20 && c != '\t' && c != '\n' && c != '\r') || byte == 0x7f)
+      refuse(fmt::format("control character 0x{:02x}", byte),
+             "printable text (of the control characters, YAML allows only tab, line feed and carriage return)");
+    // YAML streams are Unicode (YAML 1.2, sec. 5.2); a stray byte would reach names and outputs.
+    const std::size_t n = utf8_length_at(text, i);
+    if (n == 0) refuse(fmt::format("byte 0x{:02x} is not valid UTF-8", byte), "UTF-8 text");
+    if (c == '\n') {
+      ++line;
+      column = 1;
+    } else {
+      ++column;
+    }
+    i += n;
+  }
+}
+
+// The mark of a key in the document as written, for a message about a file it names.
+YAML::Mark mark_of(const YAML::Node& document, std::initializer_list<const char*> path) {
+  YAML::Node n = document;
+  for (const char* key : path) {
+    if (!n.IsMap() || !n[key]) return n.Mark();
+    n = n[key];
+  }
+  return n.Mark();
+}
+
+// Tables the scenario names are read now, so `ember check` and the start of `ember run` refuse
+// an unusable one with the scenario's line and key as well as the table's own line.
+void check_tables(const YAML::Node& document, const Scenario& s, const std::string& label) {
+  std::vector<Diagnostic> errors;
+  const auto attempt = [&](std::initializer_list<const char*> path, const std::string& key, const auto& read) {
+    try {
+      read();
+    } catch (const InputError& e) {
+      // The table's message is "FILE:LINE: problem; expected ..."; keep its two halves.
+      const std::string what = e.what();
+      const auto split = what.rfind("; expected ");
+      Diagnostic d =
+          document_error(label, mark_of(document, path), "the table it names is unusable: " + what.substr(0, split),
+                         split == std::string::npos ? std::string("a usable table") : what.substr(split + 11));
+      d.path = key;
+      errors.push_back(std::move(d));
+    }
+  };
+  if (const auto* t = std::get_if<TabulatedSpectrum>(&s.population.spectrum))
+    attempt({"population", "spectrum", "file"}, "population.spectrum.file",
+            [&] { (void)population::tabulated(t->file.string(), t->mass_unit); });
+  if (const auto* t = std::get_if<TabulatedPotential>(&s.standard_model.potential))
+    attempt({"standard_model", "potential", "file"}, "standard_model.potential.file",
+            [&] { (void)higgs::TabulatedPotential(t->file); });
+  if (s.dof_table)
+    attempt({"cosmology", "dof_table"}, "cosmology.dof_table",
+            [&] { (void)cosmology::DegreesOfFreedom::load(*s.dof_table); });
+  if (!errors.empty()) throw ScenarioError(std::move(errors));
+}
+
 }  // namespace
 
 LoadedScenario load_scenario_text(std::string_view text, const std::string& label, const std::filesystem::path& base) {
+  check_printable(text, label);
   std::vector<YAML::Node> documents;
   try {
     documents = YAML::LoadAll(std::string(text));
+  } catch (const YAML::DeepRecursion& e) {
+    throw ScenarioError({document_error(label, e.mark, fmt::format("values nested {} levels deep", e.depth()),
+                                        fmt::format("a scenario (its sections nest at most 4 levels deep)"))});
   } catch (const YAML::ParserException& e) {
     throw ScenarioError({document_error(label, e.mark, "YAML syntax error: " + e.msg, "well-formed YAML")});
   }
+  for (const auto& document : documents) check_document_size(document, label);
   if (documents.size() > 1)
     throw ScenarioError({document_error(label, documents[1].Mark(), fmt::format("{} YAML documents", documents.size()),
                                         "a single document")});
@@ -60,7 +163,9 @@ LoadedScenario load_scenario_text(std::string_view text, const std::string& labe
   const Key schema = scenario_schema();
   Resolution r = resolve(documents.empty() ? YAML::Node() : documents.front(), schema, ResolveContext{label, base});
   if (!r.errors.empty()) throw ScenarioError(std::move(r.errors));
-  return LoadedScenario{label, r.tree, read_scenario(r.tree)};
+  Scenario scenario = read_scenario(r.tree);
+  check_tables(documents.front(), scenario, label);
+  return LoadedScenario{label, r.tree, std::move(scenario)};
 }
 
 LoadedScenario load_scenario_file(const std::filesystem::path& file) {

@@ -50,7 +50,7 @@ population::Response read_response(RecordReader& in) {
 
 std::string to_text(const UnitResult& u) {
   RecordWriter w;
-  w.word("ember-unit").whole(1).end_line();
+  w.word("ember-unit").whole(2).end_line();
   w.word("rows").whole(static_cast<long long>(u.beta_max.size()));
   for (std::size_t i = 0; i < u.beta_max.size(); ++i) w.maybe_real(u.beta_max[i]).maybe_real(u.f_max[i]);
   w.end_line();
@@ -63,6 +63,9 @@ std::string to_text(const UnitResult& u) {
   w.end_line();
   w.word("cache").word(!u.cache_hit ? "-" : *u.cache_hit ? "1" : "0").end_line();
   w.text_line("summary", u.table_summary);
+  w.text_line("failure", u.failure);
+  w.word("row_failures").whole(static_cast<long long>(u.row_failures.size())).end_line();
+  for (const auto& f : u.row_failures) w.text_line("row", f);
   return w.str();
 }
 
@@ -70,7 +73,7 @@ UnitResult unit_from_text(const std::string& text, const std::string& what) {
   RecordReader in(text, what);
   UnitResult u;
   in.expect("ember-unit");
-  in.expect("1");
+  in.expect("2");
   in.expect("rows");
   const long long rows = in.whole();
   for (long long i = 0; i < rows; ++i) {
@@ -89,6 +92,10 @@ UnitResult unit_from_text(const std::string& text, const std::string& what) {
   const std::string cache = in.word();
   if (cache != "-") u.cache_hit = cache == "1";
   u.table_summary = in.text_line("summary");
+  u.failure = in.text_line("failure");
+  in.expect("row_failures");
+  const long long f = in.whole();
+  for (long long i = 0; i < f; ++i) u.row_failures.push_back(in.text_line("row"));
   return u;
 }
 

@@ -5,8 +5,10 @@
 #include <cmath>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/finite.hpp"
 #include "ember/tunnelling/flat_bounce.hpp"
 #include "ember/tunnelling/thermal_potential.hpp"
+#include "ember/units/constants.hpp"
 
 namespace ember::tunnelling {
 
@@ -321,6 +323,16 @@ ActionPoint action_at(Prescription p, const TunnellingSetup& s, double seed) {
     case Prescription::thin_wall: a = thin_wall(s, seed); break;
   }
   a.flags.below_floor = seed < s.semiclassical_floor;
+  // Module boundary (issue 9): B and the remnant leave the tunnelling module finite.
+  const auto inputs = [&] {
+    return fmt::format("{} at seed mass {:.6e} M_Pl ({})", name_of(p), seed / units::planck_mass,
+                       s.potential->description());
+  };
+  if (!a.flags.no_decay)
+    require_finite(a.action.value, "tunnelling: bounce action", "B", inputs,
+                   "a seed mass above the semiclassical floor, or another prescription");
+  require_finite(a.remnant_mass, "tunnelling: bounce action", "remnant mass", inputs,
+                 "a seed mass above the semiclassical floor, or another prescription");
   return a;
 }
 

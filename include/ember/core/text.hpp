@@ -24,6 +24,10 @@ std::string trim(std::string_view text);
 // message quoting user input never puts raw bytes on the terminal.
 std::string printable(std::string_view text);
 
+// The length of the UTF-8 sequence starting at text[i] (1 for ASCII), or 0 when the bytes there
+// are not valid UTF-8 (RFC 3629).
+std::size_t utf8_length_at(std::string_view text, std::size_t i);
+
 // Strict, locale-independent number parsing of the whole text: a finite double, or a whole
 // number. A leading '+' is accepted. Anything else gives nullopt.
 std::optional<double> parse_real(std::string_view text);

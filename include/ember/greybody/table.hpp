@@ -63,6 +63,8 @@ class Table {
 
 // Reads a table; throws InputError naming the file, line and what was expected.
 Table load_table(const std::filesystem::path& file);
+// The same from the file's text; `label` names it in messages.
+Table parse_table(std::string_view text, const std::string& label);
 // The table that ships: data/greybody.tsv in the data folder.
 Table load_default_table();
 std::filesystem::path default_table_path();

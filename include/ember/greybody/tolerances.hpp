@@ -28,4 +28,9 @@ inline constexpr double power_fraction_cut = 1e-6;
 // Interpolated values must match direct solves to this relative accuracy over the table's range.
 inline constexpr double interpolation_relative = 1e-4;
 
+// Highest x the direct solver takes. The wave oscillates ~x times per M of r*, so the step count
+// grows as x (6e5 steps at x = 1e3, measured); far above the barrier Gamma = 1 to within
+// |R|^2 ~ 1e-27 already at x = 100 (measured), which the tables use instead.
+inline constexpr double solver_max_x = 1e3;
+
 }  // namespace ember::greybody::tolerance

@@ -58,6 +58,8 @@ class StandardModelPotential final : public Potential {
   const Running& running() const { return *running_; }
   const StandardModelOptions& options() const { return options_; }
   double interpolation_error() const { return interpolation_error_; }  // absolute, on lambda_eff
+  // lambda_eff evaluated from the running couplings, without the spline (slow; for checks).
+  double lambda_eff_direct(double h) const;
 
   struct Table;
 
@@ -66,7 +68,6 @@ class StandardModelPotential final : public Potential {
   StandardModelOptions options_;
   std::shared_ptr<const Table> table_;
   double interpolation_error_ = 0;
-  double lambda_eff_direct(double h) const;
 };
 
 // V = scale^4 sum_n a_n (phi/scale)^n.

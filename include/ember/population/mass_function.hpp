@@ -14,6 +14,7 @@
 
 #include <memory>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace ember::population {
@@ -36,5 +37,8 @@ std::unique_ptr<MassFunction> power_law(double min_mass, double max_mass, double
 std::unique_ptr<MassFunction> critical_collapse(double cutoff_mass, double exponent);
 // mass_unit: g, kg, Msun, Mpl or GeV. Throws InputError naming the file and line.
 std::unique_ptr<MassFunction> tabulated(const std::string& file, const std::string& mass_unit);
+// The same from the file's text; `label` names it in messages.
+std::unique_ptr<MassFunction> tabulated_text(std::string_view text, const std::string& label,
+                                             const std::string& mass_unit);
 
 }  // namespace ember::population

@@ -6,6 +6,7 @@
 #pragma once
 
 #include <filesystem>
+#include <functional>
 #include <memory>
 #include <optional>
 #include <string>
@@ -34,6 +35,10 @@ struct JobOptions {
   std::optional<CheckpointOptions> checkpoint;
   // Who computes the units; none: `threads` threads on this machine. Not owned.
   const Executor* executor = nullptr;
+  // For tests: called before each scan row of each unit with (Higgs point, prescription, row), and
+  // with row = the number of rows before the central point's own counts; a NumericalError thrown
+  // there is recorded like a solver failure at that row (or, for the counts, of the whole unit).
+  std::function<void(std::size_t, std::size_t, std::size_t)> before_row;
 };
 
 // What a checkpoint of this job must match besides the scenario: every option that changes a
@@ -50,9 +55,10 @@ struct HiggsPoint {
 struct CurveRow {
   double mass = 0;                            // formation mass (monochromatic) or characteristic mass (GeV)
   double width = 0;                           // lognormal width, 0 when not scanned
-  std::optional<double> beta_max, f_max;      // none: no decays, no constraint
+  std::optional<double> beta_max, f_max;      // none: no constraint (no decays, or a bound >= 1)
   std::optional<double> band_low, band_high;  // beta_max envelope over the band points with a constraint
   int band_without = 0;                       // band points where there is no constraint here
+  bool failed = false;                        // a solver failed here (JobResults::failures says why)
 };
 
 struct PrescriptionOutcome {
@@ -65,6 +71,7 @@ struct PrescriptionOutcome {
   std::string table_summary;
   std::vector<double> plot_ratio;  // Gamma_D / Gamma_H at JobResults::plot_masses
   std::vector<std::string> notes;
+  std::string failure;  // a solver failed for the central point: why (counts and verdict then void)
 };
 
 struct BandPoint {
@@ -72,6 +79,15 @@ struct BandPoint {
   higgs::Verdict verdict = higgs::Verdict::stable;
   bool constraint = false;
   std::optional<double> log10_unseeded;
+  bool failed = false;  // some unit of this point failed (JobResults::failures says why)
+};
+
+// A point of the scan where a solver failed; the rest of the scan went on without it.
+struct FailedPoint {
+  std::size_t point = 0;              // index into JobResults::band
+  std::string prescription;           // empty: the point's potential itself failed
+  std::optional<double> mass, width;  // the scan row (GeV); none: the whole unit
+  std::string reason;                 // the solver's message, with its numbers
 };
 
 struct JobResults {
@@ -88,6 +104,7 @@ struct JobResults {
   double seconds = 0;
   int tables_built = 0, tables_from_cache = 0;  // B(M) tables, per (Higgs point, prescription)
   int units_resumed = 0;                        // units read back from a checkpoint
+  std::vector<FailedPoint> failures;            // in scan order; empty when every point succeeded
   bool assembled = true;                        // false on MPI ranks that only computed
 };
 

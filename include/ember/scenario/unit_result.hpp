@@ -21,6 +21,8 @@ struct UnitResult {
   std::string table_summary;                           // central point only
   std::vector<double> plot_ratio;                      // Gamma_D / Gamma_H at the plot masses (central)
   std::optional<bool> cache_hit;                       // set when a B(M) table was needed
+  std::string failure;                                 // a solver failed for the whole unit: why
+  std::vector<std::string> row_failures;               // per scan row: why it failed; empty: it did not
 };
 
 std::string to_text(const UnitResult& unit);
