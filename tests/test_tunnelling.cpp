@@ -81,6 +81,35 @@ TEST_CASE("flat O(3) bounce of m^2 phi^2/2 - |lambda| phi^4/4: S3 = 18.90 m/|lam
   CHECK_THROWS_AS(solve_flat_bounce(higgs::PolynomialPotential(1.0, {0, 0, 0.5, 0, -0.25}), o), ember::NumericalError);
 }
 
+TEST_CASE("flat O(3) and O(4) bounces converge as their tolerances are refined") {
+  // Derived: refining the step and shooting tolerances must move S toward the tightest answer,
+  // and the stated error must cover the distance to it. O(3): the quartic bounce above; O(4): the
+  // thin-wall toy of the first test at eps = 0.1.
+  const higgs::PolynomialPotential o3(1.0, {0, 0, 0.5, 0, -0.25});
+  const auto o4 = thin_wall_toy(1, 0.1);
+  for (const int d : {3, 4}) {
+    CAPTURE(d);
+    FlatBounceOptions loose, fine, tight;
+    for (FlatBounceOptions* o : {&loose, &fine, &tight}) {
+      o->dimensions = d;
+      o->scan_from = 1e-6;
+    }
+    loose.relative_tolerance = 1e-6;
+    loose.shooting_tolerance = 1e-8;
+    tight.relative_tolerance = 1e-12;
+    tight.shooting_tolerance = 1e-15;
+    const higgs::Potential& p = d == 3 ? static_cast<const higgs::Potential&>(o3) : o4;
+    const FlatBounce a = solve_flat_bounce(p, loose), b = solve_flat_bounce(p, fine), c = solve_flat_bounce(p, tight);
+    CHECK(a.summary.status == BounceStatus::converged);
+    CHECK(c.summary.status == BounceStatus::converged);
+    CHECK(std::abs(b.action.value - c.action.value) <=
+          std::abs(a.action.value - c.action.value) + 1e-12 * c.action.value);
+    CHECK(std::abs(b.action.value - c.action.value) <= b.action.error + c.action.error);
+    CHECK(close(b.action.value, c.action.value, 1e-6));
+    CHECK(c.summary.bisections >= b.summary.bisections);
+  }
+}
+
 TEST_CASE("the area formula equals the directly computed Euclidean action") {
   // B = 4 pi G (M+^2 - M-^2) against the bulk action plus the conical deficit at the remnant
   // horizon (derived; static_instanton.hpp). Standard Model bubbles (weak back-reaction):
