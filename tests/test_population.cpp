@@ -200,6 +200,57 @@ TEST_CASE("results do not depend on the thread count") {
   CHECK(a.band.size() == 3);  // the central point and M_t at -2 and +2 sigma
 }
 
+TEST_CASE("a band mixing stable and metastable points, with widths, lambda6 and a light-cone count") {
+  // Derived checks of the job's bookkeeping (issue 7): a band over M_t +- 2 GeV (the low end is
+  // stable: the critical top mass is about 171 GeV, Buttazzo et al. JHEP 12 (2013) 089, from
+  // memory; the test reads each point's verdict rather than assuming it) and lambda6 = 3.
+  const auto loaded = scenario::load_scenario_text(R"(
+population:
+  spectrum: {shape: lognormal, peak_mass: 1e9 g, width: 0.5}
+  abundance: {measure: lightcone_count, value: 3}
+standard_model: {loops: 2}
+tunnelling: {prescriptions: [probe_field]}
+scan:
+  masses: {from: 1e8 g, to: 1e10 g, points: 2}
+  widths: [0.3, 0.6]
+  band:
+    top_mass: {span: 2, points: 3, sigma: 1 GeV}
+    lambda6: [3.0]
+)",
+                                                   "band.yaml", ".");
+  const scenario::JobResults r = scenario::run_job(loaded.scenario);
+  // The central point, then 3 top masses x {0, 3} for lambda6 less the central one: 6 points.
+  REQUIRE(r.band.size() == 6);
+  int stable = 0, with_lambda6 = 0;
+  for (const auto& b : r.band) {
+    if (b.verdict == higgs::Verdict::stable) {
+      ++stable;
+      CHECK_FALSE(b.constraint);  // a stable point constrains nothing
+    }
+    with_lambda6 += b.point.lambda6 == 3.0;
+  }
+  CHECK(stable == 2);  // M_t = 170.57 GeV with and without lambda6
+  CHECK(with_lambda6 == 3);
+  const auto& o = r.outcomes.at(0);
+  // Rows: 2 characteristic masses x 2 widths, and the widths change the answer.
+  REQUIRE(o.curve.size() == 4);
+  CHECK(o.curve[0].width == 0.3);
+  CHECK(o.curve[1].width == 0.6);
+  REQUIRE(o.curve[0].beta_max);
+  REQUIRE(o.curve[1].beta_max);
+  CHECK(*o.curve[0].beta_max != *o.curve[1].beta_max);
+  for (const auto& row : o.curve) {
+    CHECK(row.band_without == 2);  // exactly the stable points
+    REQUIRE(row.band_low);
+    REQUIRE(row.band_high);
+    CHECK(*row.band_low <= *row.beta_max);
+    CHECK(*row.beta_max <= *row.band_high);
+  }
+  // The abundance given as a light-cone count comes back as that count.
+  CHECK(close(o.counts.lightcone, 3.0, 1e-6));
+  CHECK(o.excluded);
+}
+
 TEST_CASE("a failed point is recorded with its reason, and the rest of the scan goes on") {
   // Derived (the job's contract, issue 9): failures are injected through JobOptions::before_row,
   // as a solver would throw them; every other number must equal the run without failures.

@@ -278,6 +278,11 @@ std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobR
   if (!r.failures.empty())
     t += fmt::format("  failed points: {} (in summary.json failed_points; the rest of the scan went on); first: {}\n",
                      r.failures.size(), r.failures.front().reason);
+  if (!std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum))
+    t += fmt::format(
+        "  survivors: holes formed above {:.3g} g survive today; for them the constraint comes only from the "
+        "evaporated low-mass tail of the spectrum\n",
+        r.survivors_mass / u::gram);
   const Tightest best = tightest(r);
   if (best.found)
     t += fmt::format("  most constraining: {} at {:.4g} g: beta_max = {:.4e} (f_max = {:.4e})\n", best.prescription,
