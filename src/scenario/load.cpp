@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 #include <yaml-cpp/depthguard.h>
 
+#include <cctype>
 #include <fstream>
 #include <sstream>
 
@@ -102,6 +103,56 @@ void check_printable(std::string_view text, const std::string& label) {
   }
 }
 
+// yaml-cpp 0.7 loops without end where a block-context node starts with ',' (found by fuzzing:
+// ",'x'", "- a\n, x"; tests/fuzz/regressions/scenario). YAML never allows it (1.2, sec. 7.3.3:
+// a plain scalar cannot start with an indicator), so it is refused first. The scan follows
+// comments, quoted scalars and flow brackets just far enough to know where nodes start.
+void check_node_starts(std::string_view text, const std::string& label) {
+  int line = 1, column = 0, flow = 0;
+  bool node_start = true;  // only blanks since the last place a node may start
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const char c = text[i];
+    ++column;
+    if (c == '\n') {
+      ++line;
+      column = 0;
+      node_start = true;
+      continue;
+    }
+    if (c == ' ' || c == '\t' || c == '\r') continue;
+    const bool after_blank = i == 0 || text[i - 1] == ' ' || text[i - 1] == '\t' || text[i - 1] == '\n';
+    if (c == '#' && after_blank) {  // a comment, to the end of the line
+      while (i + 1 < text.size() && text[i + 1] != '\n') ++i;
+      continue;
+    }
+    if (node_start && (c == '\'' || c == '"')) {  // a quoted scalar, to its closing quote
+      for (++i; i < text.size(); ++i) {
+        if (text[i] == '\n') ++line;
+        if (c == '"' && text[i] == '\\')
+          ++i;
+        else if (text[i] == c && !(c == '\'' && i + 1 < text.size() && text[i + 1] == '\''))
+          break;
+        else if (c == '\'' && text[i] == '\'')
+          ++i;
+      }
+      node_start = false;
+      continue;
+    }
+    if (c == ',' && node_start && flow == 0) {
+      YAML::Mark mark;
+      mark.line = line - 1;
+      mark.column = column - 1;
+      throw ScenarioError({document_error(label, mark, "a value starting with ','",
+                                          "a value (a plain value cannot start with ','; quote it)")});
+    }
+    const bool indicator_then_blank = (c == '-' || c == ':' || c == '?') &&
+                                      (i + 1 == text.size() || std::isspace(static_cast<unsigned char>(text[i + 1])));
+    if (c == '[' || c == '{') ++flow;
+    if ((c == ']' || c == '}') && flow > 0) --flow;
+    node_start = indicator_then_blank || c == '[' || c == '{' || (c == ',' && flow > 0);
+  }
+}
+
 // The mark of a key in the document as written, for a message about a file it names.
 YAML::Mark mark_of(const YAML::Node& document, std::initializer_list<const char*> path) {
   YAML::Node n = document;
@@ -146,6 +197,7 @@ void check_tables(const YAML::Node& document, const Scenario& s, const std::stri
 
 LoadedScenario load_scenario_text(std::string_view text, const std::string& label, const std::filesystem::path& base) {
   check_printable(text, label);
+  check_node_starts(text, label);
   std::vector<YAML::Node> documents;
   try {
     documents = YAML::LoadAll(std::string(text));
