@@ -71,8 +71,10 @@ double lightcone_per_amplitude(const MassFunction& s, const std::vector<Response
   return integrate(s, rs, [](const Response& r) { return r.lightcone_per_beta / r.f_per_beta; });
 }
 
-Counts counts_for(const MassFunction& s, AbundanceMeasure measure, double value, const std::vector<Response>& rs) {
-  if (rs.empty()) throw InputError("counts: no responses");
+namespace {
+
+Counts counts_unchecked(const MassFunction& s, AbundanceMeasure measure, double value,
+                        const std::vector<Response>& rs) {
   Counts c;
   if (s.monochromatic()) {
     const Response& r = rs.front();
@@ -97,6 +99,20 @@ Counts counts_for(const MassFunction& s, AbundanceMeasure measure, double value,
   c.from_evaporated = c.f_pbh * integrate(s, rs, [](const Response& r) {
                         return r.decay.evaporated ? r.lightcone_per_beta / r.f_per_beta : 0.0;
                       });
+  return c;
+}
+
+}  // namespace
+
+Counts counts_for(const MassFunction& s, AbundanceMeasure measure, double value, const std::vector<Response>& rs) {
+  if (rs.empty()) throw InputError("counts: no responses");
+  const Counts c = counts_unchecked(s, measure, value, rs);
+  // Module boundary (issue 9): the counts leave the population module finite.
+  const auto inputs = [&] { return fmt::format("abundance {} on {}", value, s.description()); };
+  const char* hint = "another abundance measure (beta or f_pbh), or a spectrum inside the formable masses";
+  for (const auto& [what, v] : {std::pair{"beta", c.beta}, std::pair{"f_PBH", c.f_pbh},
+                                std::pair{"N_lightcone", c.lightcone}, std::pair{"N_hubble", c.hubble}})
+    require_finite(v, "population: counts", what, inputs, hint);
   return c;
 }
 
