@@ -291,6 +291,7 @@ TEST_CASE("heavy seeds: no bracket is an error, and never a negative B") {
     const ActionPoint a = action_at(p, s, 1e20 * m_pl);
     CAPTURE(name_of(p));
     CHECK(a.flags.fallback);
+    CHECK_FALSE(a.flags.remnant_free_regime);  // heavy, not below a critical mass
     CHECK(a.action.value > 0);
     const Rates r =
         rates_at(a, evaporation::MassLoss(greybody::load_default_table(), evaporation::load_default_particles()),
@@ -305,6 +306,34 @@ TEST_CASE("heavy seeds: no bracket is an error, and never a negative B") {
       rates_at(bad, evaporation::MassLoss(greybody::load_default_table(), evaporation::load_default_particles()),
                Prefactor::root_action),
       NumericalError);
+}
+
+TEST_CASE("strong back-reaction: the branch scan, and the regime below the critical seed mass") {
+  // Derived (issue 6): for the toy wall at a = 0.03 M_Pl the bubble carries Delta M / M of 6-15%,
+  // so entropy_drop scans lighter remnants for other branches; the answer must be a solution,
+  // M_+ = M_- + Delta M(M_-), with B = 4 pi G (M_+^2 - M_-^2). Below some seed mass no static
+  // solution exists (measured: between 0.3 and 0.5 of the reference mass 26.7/(2 G a)): the
+  // fallback is flagged as the remnant-free regime there.
+  const double a = 0.03 * m_pl;
+  const auto wall = thin_wall_toy(a, 0.05);
+  TunnellingSetup s;
+  s.potential = &wall;
+  s.semiclassical_floor = 0;
+  const double reference = 26.7 / a / (2 * units::newton_G);
+  const ActionPoint strong = action_at(Prescription::entropy_drop, s, reference);
+  CHECK_FALSE(strong.flags.fallback);
+  CHECK(strong.remnant_mass < 0.99 * reference);  // Delta M / M above the scan's 1e-4 threshold
+  StaticOptions o;
+  const StaticSolution at_remnant = solve_static(wall, strong.remnant_mass, o);
+  CHECK(close(strong.remnant_mass + at_remnant.mass_shift.value, reference, 1e-6));
+  CHECK(close(strong.action.value,
+              4 * units::pi * units::newton_G * (reference * reference - strong.remnant_mass * strong.remnant_mass),
+              1e-4));
+  const ActionPoint light = action_at(Prescription::entropy_drop, s, 0.3 * reference);
+  CHECK(light.flags.fallback);
+  CHECK(light.flags.remnant_free_regime);
+  CHECK(close(light.action.value, 4 * units::pi * units::newton_G * std::pow(0.3 * reference, 2), 1e-12));
+  CHECK_FALSE(strong.flags.remnant_free_regime);
 }
 
 TEST_CASE("cached B(M) tables: a hit is bit for bit, a change misses, damage is rebuilt") {

@@ -203,7 +203,8 @@ double unhex(const std::string& text) {
 unsigned flag_bits(const Flags& f) {
   return (f.below_floor ? 1u : 0u) | (f.fallback ? 2u : 0u) | (f.resolution_limit ? 4u : 0u) |
          (f.several_branches ? 8u : 0u) | (f.near_branch_point ? 16u : 0u) | (f.outside_running ? 32u : 0u) |
-         (f.no_decay ? 64u : 0u) | (f.beyond_table ? 128u : 0u) | (f.unconverged ? 256u : 0u);
+         (f.no_decay ? 64u : 0u) | (f.beyond_table ? 128u : 0u) | (f.unconverged ? 256u : 0u) |
+         (f.remnant_free_regime ? 512u : 0u);
 }
 
 Flags flags_of(unsigned b) {
@@ -217,6 +218,7 @@ Flags flags_of(unsigned b) {
   f.no_decay = b & 64u;
   f.beyond_table = b & 128u;
   f.unconverged = b & 256u;
+  f.remnant_free_regime = b & 512u;
   return f;
 }
 

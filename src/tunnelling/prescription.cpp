@@ -62,6 +62,7 @@ std::vector<std::string> Flags::list() const {
   if (no_decay) out.emplace_back("no_decay");
   if (beyond_table) out.emplace_back("beyond_table");
   if (unconverged) out.emplace_back("unconverged");
+  if (remnant_free_regime) out.emplace_back("remnant_free_regime");
   return out;
 }
 
@@ -75,6 +76,7 @@ Flags& Flags::operator|=(const Flags& o) {
   no_decay |= o.no_decay;
   beyond_table |= o.beyond_table;
   unconverged |= o.unconverged;
+  remnant_free_regime |= o.remnant_free_regime;
   return *this;
 }
 
@@ -101,6 +103,19 @@ bool is_no_solution(const NumericalError& e) {
   return e.solver() == "static instanton shooting";
 }
 
+// Whether a static solution exists at a seed 10 times heavier: then this seed lies below the
+// critical seed mass, where remnant-free instantons take over (rather than above the range where
+// the bubble no longer fits, as for very heavy seeds).
+bool static_solution_heavier(const TunnellingSetup& s, const StaticOptions& o, double seed) {
+  try {
+    (void)solve_static(*s.potential, 10 * seed, o);
+    return true;
+  } catch (const NumericalError& e) {
+    if (!is_no_solution(e)) throw;
+    return false;
+  }
+}
+
 ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
   StaticOptions o;
   o.newton_G = s.newton_G;
@@ -114,7 +129,11 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
       sol = solve_static(*s.potential, m_minus, o);
     } catch (const NumericalError& e) {
       if (!is_no_solution(e)) throw;
-      return fallback_point(s, seed, e.what());
+      ActionPoint f = fallback_point(s, seed, e.what());
+      f.flags.remnant_free_regime = static_solution_heavier(s, o, seed);
+      if (f.flags.remnant_free_regime)
+        f.note += "; below the critical seed mass (a static solution exists at 10x the seed)";
+      return f;
     }
     const double next = seed - sol.mass_shift.value;
     if (it > 0 && m_minus != previous_m) {
