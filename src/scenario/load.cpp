@@ -103,13 +103,28 @@ void check_printable(std::string_view text, const std::string& label) {
   }
 }
 
-// yaml-cpp 0.7 loops without end where a block-context node starts with ',' (found by fuzzing:
-// ",'x'", "- a\n, x"; tests/fuzz/regressions/scenario). YAML never allows it (1.2, sec. 7.3.3:
-// a plain scalar cannot start with an indicator), so it is refused first. The scan follows
-// comments, quoted scalars and flow brackets just far enough to know where nodes start.
-void check_node_starts(std::string_view text, const std::string& label) {
+// yaml-cpp 0.7 loops without end on a ',' outside flow brackets that is not inside a plain
+// scalar: where a node starts (",'x'", "- a\n, x", "&a ,x") or right after a whole node at the
+// top ("'',", "[a],"), all found by fuzzing (tests/fuzz/regressions/scenario). YAML never allows
+// a ',' there (1.2, secs. 7.3.3 and 8.2), so it is refused first. The scan follows comments,
+// quoted scalars, anchors, tags and flow brackets just far enough to know where nodes start and end.
+void check_commas(std::string_view text, const std::string& label) {
   int line = 1, column = 0, flow = 0;
-  bool node_start = true;  // only blanks since the last place a node may start
+  bool node_start = true;  // only blanks since a place where a node may start
+  bool closed = false;     // a whole node (quoted, bracketed, alias) just ended outside brackets
+  const auto refuse = [&] {
+    YAML::Mark mark;
+    mark.line = line - 1;
+    mark.column = column - 1;
+    throw ScenarioError(
+        {document_error(label, mark, "a ',' outside brackets and outside a plain value",
+                        "',' only between items in brackets or inside a plain value (quote a value that needs it)")});
+  };
+  const auto word_end = [&](std::size_t& i) {  // skip an anchor, tag or alias name
+    while (i + 1 < text.size() && !std::isspace(static_cast<unsigned char>(text[i + 1])) && text[i + 1] != ',' &&
+           text[i + 1] != '[' && text[i + 1] != ']' && text[i + 1] != '{' && text[i + 1] != '}')
+      ++i, ++column;
+  };
   for (std::size_t i = 0; i < text.size(); ++i) {
     const char c = text[i];
     ++column;
@@ -117,6 +132,7 @@ void check_node_starts(std::string_view text, const std::string& label) {
       ++line;
       column = 0;
       node_start = true;
+      closed = false;
       continue;
     }
     if (c == ' ' || c == '\t' || c == '\r') continue;
@@ -125,30 +141,41 @@ void check_node_starts(std::string_view text, const std::string& label) {
       while (i + 1 < text.size() && text[i + 1] != '\n') ++i;
       continue;
     }
+    if (c == ',' && flow == 0 && (node_start || closed)) refuse();
     if (node_start && (c == '\'' || c == '"')) {  // a quoted scalar, to its closing quote
       for (++i; i < text.size(); ++i) {
-        if (text[i] == '\n') ++line;
-        if (c == '"' && text[i] == '\\')
-          ++i;
-        else if (text[i] == c && !(c == '\'' && i + 1 < text.size() && text[i + 1] == '\''))
+        ++column;
+        if (text[i] == '\n') {
+          ++line;
+          column = 0;
+        }
+        if (c == '"' && text[i] == '\\') {
+          ++i, ++column;
+        } else if (text[i] == c && !(c == '\'' && i + 1 < text.size() && text[i + 1] == '\'')) {
           break;
-        else if (c == '\'' && text[i] == '\'')
-          ++i;
+        } else if (c == '\'' && text[i] == '\'') {
+          ++i, ++column;
+        }
       }
       node_start = false;
+      closed = flow == 0;
       continue;
     }
-    if (c == ',' && node_start && flow == 0) {
-      YAML::Mark mark;
-      mark.line = line - 1;
-      mark.column = column - 1;
-      throw ScenarioError({document_error(label, mark, "a value starting with ','",
-                                          "a value (a plain value cannot start with ','; quote it)")});
+    if (node_start && (c == '&' || c == '!')) {  // an anchor or tag: the node itself follows
+      word_end(i);
+      continue;
+    }
+    if (node_start && c == '*') {  // an alias: a whole node
+      word_end(i);
+      node_start = false;
+      closed = flow == 0;
+      continue;
     }
     const bool indicator_then_blank = (c == '-' || c == ':' || c == '?') &&
                                       (i + 1 == text.size() || std::isspace(static_cast<unsigned char>(text[i + 1])));
     if (c == '[' || c == '{') ++flow;
     if ((c == ']' || c == '}') && flow > 0) --flow;
+    closed = (c == ']' || c == '}') && flow == 0;
     node_start = indicator_then_blank || c == '[' || c == '{' || (c == ',' && flow > 0);
   }
 }
@@ -197,7 +224,7 @@ void check_tables(const YAML::Node& document, const Scenario& s, const std::stri
 
 LoadedScenario load_scenario_text(std::string_view text, const std::string& label, const std::filesystem::path& base) {
   check_printable(text, label);
-  check_node_starts(text, label);
+  check_commas(text, label);
   std::vector<YAML::Node> documents;
   try {
     documents = YAML::LoadAll(std::string(text));
