@@ -111,19 +111,22 @@ void check_printable(std::string_view text, const std::string& label) {
 void check_commas(std::string_view text, const std::string& label) {
   int line = 1, column = 0, flow = 0;
   bool node_start = true;  // only blanks since a place where a node may start
-  bool closed = false;     // a whole node (quoted, bracketed, alias) just ended outside brackets
+  bool in_plain = false;   // inside a plain scalar, the one place outside brackets a ',' may be
   const auto refuse = [&] {
     YAML::Mark mark;
     mark.line = line - 1;
     mark.column = column - 1;
-    throw ScenarioError(
-        {document_error(label, mark, "a ',' outside brackets and outside a plain value",
-                        "',' only between items in brackets or inside a plain value (quote a value that needs it)")});
+    throw ScenarioError({document_error(label, mark, "a ',' outside brackets and outside a plain value",
+                                        "',' only between items in brackets or inside a plain value (quote a value "
+                                        "that needs it)")});
   };
   const auto word_end = [&](std::size_t& i) {  // skip an anchor, tag or alias name
     while (i + 1 < text.size() && !std::isspace(static_cast<unsigned char>(text[i + 1])) && text[i + 1] != ',' &&
            text[i + 1] != '[' && text[i + 1] != ']' && text[i + 1] != '{' && text[i + 1] != '}')
       ++i, ++column;
+  };
+  const auto plain_start = [](char c) {  // YAML 1.2 sec. 7.3.3: not an indicator
+    return std::string_view(",[]{}#&*!|>'\"%@`").find(c) == std::string_view::npos;
   };
   for (std::size_t i = 0; i < text.size(); ++i) {
     const char c = text[i];
@@ -132,7 +135,7 @@ void check_commas(std::string_view text, const std::string& label) {
       ++line;
       column = 0;
       node_start = true;
-      closed = false;
+      in_plain = false;
       continue;
     }
     if (c == ' ' || c == '\t' || c == '\r') continue;
@@ -141,7 +144,7 @@ void check_commas(std::string_view text, const std::string& label) {
       while (i + 1 < text.size() && text[i + 1] != '\n') ++i;
       continue;
     }
-    if (c == ',' && flow == 0 && (node_start || closed)) refuse();
+    if (c == ',' && flow == 0 && !in_plain) refuse();
     if (node_start && (c == '\'' || c == '"')) {  // a quoted scalar, to its closing quote
       for (++i; i < text.size(); ++i) {
         ++column;
@@ -157,8 +160,7 @@ void check_commas(std::string_view text, const std::string& label) {
           ++i, ++column;
         }
       }
-      node_start = false;
-      closed = flow == 0;
+      node_start = in_plain = false;
       continue;
     }
     if (node_start && (c == '&' || c == '!')) {  // an anchor or tag: the node itself follows
@@ -167,15 +169,15 @@ void check_commas(std::string_view text, const std::string& label) {
     }
     if (node_start && c == '*') {  // an alias: a whole node
       word_end(i);
-      node_start = false;
-      closed = flow == 0;
+      node_start = in_plain = false;
       continue;
     }
     const bool indicator_then_blank = (c == '-' || c == ':' || c == '?') &&
                                       (i + 1 == text.size() || std::isspace(static_cast<unsigned char>(text[i + 1])));
     if (c == '[' || c == '{') ++flow;
     if ((c == ']' || c == '}') && flow > 0) --flow;
-    closed = (c == ']' || c == '}') && flow == 0;
+    if (node_start && !indicator_then_blank && plain_start(c)) in_plain = true;
+    if (indicator_then_blank || ((c == ']' || c == '}') && flow == 0)) in_plain = false;
     node_start = indicator_then_blank || c == '[' || c == '{' || (c == ',' && flow > 0);
   }
 }
