@@ -4,25 +4,7 @@
 set -u
 ember=$1
 src=$2
-work=$(mktemp -d)
-trap 'rm -rf "$work"' EXIT
-# B(M) tables are cached between runs: keep this test's cache out of the user's.
-export EMBER_CACHE_DIR="$work/cache"
-failures=0
-
-fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
-
-# run NAME EXPECTED_CODE -- command...   (stdout to $work/out, stderr to $work/err)
-run() {
-  local name=$1 expected=$2
-  shift 3
-  "$@" >"$work/out" 2>"$work/err"
-  local code=$?
-  [[ $code == "$expected" ]] || fail "$name: exit $code, expected $expected; stderr: $(head -c 400 "$work/err")"
-}
-stdout_has() { grep -qF -- "$2" "$work/out" || fail "$1: stdout lacks '$2'"; }
-stderr_has() { grep -qF -- "$2" "$work/err" || fail "$1: stderr lacks '$2'"; }
-stdout_empty() { [[ ! -s "$work/out" ]] || fail "$1: stdout should be empty: $(head -c 200 "$work/out")"; }
+source "$(dirname "$0")/helpers.sh"
 # JSON outputs are kept and parsed together at the end (one Python start-up instead of dozens).
 mkdir -p "$work/json"
 json_count=0
@@ -420,6 +402,15 @@ if not (t["B"] and t["B"] > 0):
 if "below_semiclassical_floor" not in json.loads((work / "floor.json").read_text())["probe_field"]["flags"]:
     print("FAIL: a 10 M_Pl seed is not flagged below the semiclassical floor")
     bad += 1
+# beta is an energy fraction: a bound at or above 1 is no constraint and must be an empty cell
+# (derived; before this rule the demo's hot_bubble column read ~1e144).
+import csv
+rows = [l for l in (work / "run" / "constraint.csv").read_text().splitlines() if not l.startswith("#")]
+for row in csv.DictReader(rows):
+    for key, value in row.items():
+        if key.startswith("beta_max_") and value and not float(value) < 1:
+            print(f"FAIL: constraint.csv {key} = {value} at {row['mass_g']} g: a bound >= 1 is no constraint")
+            bad += 1
 r = json.loads((work / "run-summary.json").read_text())
 for key in ("ember_version", "scenario_hash", "scenario", "cautions", "prescriptions", "unseeded_baseline", "band"):
     if key not in r:

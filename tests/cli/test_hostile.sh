@@ -8,20 +8,7 @@ set -uo pipefail
 ember=$1
 src=$2
 data="$src/tests/data/hostile"
-work=$(mktemp -d)
-trap 'rm -rf "$work"' EXIT
-export EMBER_CACHE_DIR="$work/cache"
-failures=0
-fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
-run() {
-  local name=$1 expected=$2
-  shift 3
-  "$@" >"$work/out" 2>"$work/err"
-  local code=$?
-  [[ $code == "$expected" ]] || fail "$name: exit $code, expected $expected; stderr: $(head -c 400 "$work/err")"
-}
-stdout_has() { grep -qF -- "$2" "$work/out" || fail "$1: stdout lacks '$2'"; }
-stderr_has() { grep -qF -- "$2" "$work/err" || fail "$1: stderr lacks '$2'"; }
+source "$(dirname "$0")/helpers.sh"
 nothing_in() { [[ ! -e "$2" ]] || [[ -z "$(ls -A "$2")" ]] || fail "$1: something was written to $2"; }
 # run_ok NAME SCENARIO: a run that must succeed, into $work/results/NAME.
 run_ok() { run "$1" 0 -- "$ember" run "$data/$2" -o "$work/results/$1" --no-plots --quiet; }
