@@ -60,7 +60,7 @@ ActionPoint solve_node(Prescription p, const TunnellingSetup& s, double mass) {
     a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
     a.note = sol.summary.message;
   } catch (const NumericalError& e) {
-    if (e.solver() != "static instanton shooting") throw;
+    if (!no_static_solution(e)) throw;
     a = action_at(p, s, mass);  // the fallback, at the seed mass
   }
   a.flags.below_floor = a.seed_mass < s.semiclassical_floor;

@@ -3,10 +3,13 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <map>
+#include <optional>
 
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/tunnelling/flat_bounce.hpp"
+#include "ember/tunnelling/remnant_branches.hpp"
 #include "ember/tunnelling/thermal_potential.hpp"
 #include "ember/units/constants.hpp"
 
@@ -100,7 +103,7 @@ ActionPoint fallback_point(const TunnellingSetup& s, double seed, const std::str
 }
 
 bool is_no_solution(const NumericalError& e) {
-  return e.solver() == "static instanton shooting";
+  return no_static_solution(e);
 }
 
 // Whether a static solution exists at a seed 10 times heavier: then this seed lies below the
@@ -116,93 +119,66 @@ bool static_solution_heavier(const TunnellingSetup& s, const StaticOptions& o, d
   }
 }
 
+// Every remnant branch for the seed (remnant_branches.hpp), each from a static solve kept for
+// reuse; the lowest B wins. No branch: the fallback, flagged as the remnant-free regime when a
+// heavier seed has a static solution.
 ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
   StaticOptions o;
   o.newton_G = s.newton_G;
-  // M_+ = M_- + DeltaM(M_-): iterate M_- <- M_+ - DeltaM(M_-) from M_- = M_+.
-  double m_minus = seed, previous_dm = 0, previous_m = 0;
-  StaticSolution sol;
-  ActionPoint a;
-  a.seed_mass = seed;
-  for (int it = 0; it < 40; ++it) {
+  std::map<double, StaticSolution> solved;
+  std::optional<NumericalError> unresolved, absent;
+  const MassShiftFn shift = [&](double m) -> std::optional<double> {
     try {
-      sol = solve_static(*s.potential, m_minus, o);
+      auto it = solved.find(m);
+      if (it == solved.end()) it = solved.emplace(m, solve_static(*s.potential, m, o)).first;
+      const StaticSolution& sol = it->second;
+      // A bracket that did not close is not a solution to root-find on.
+      if (sol.at_resolution_limit) return std::nullopt;
+      return sol.mass_shift.value;
     } catch (const NumericalError& e) {
       if (!is_no_solution(e)) throw;
-      ActionPoint f = fallback_point(s, seed, e.what());
-      f.flags.remnant_free_regime = static_solution_heavier(s, o, seed);
-      if (f.flags.remnant_free_regime)
-        f.note += "; below the critical seed mass (a static solution exists at 10x the seed)";
-      return f;
+      (wall_beyond_resolution(e) ? unresolved : absent) = e;
+      return std::nullopt;
     }
-    const double next = seed - sol.mass_shift.value;
-    if (it > 0 && m_minus != previous_m) {
-      const double slope = 1 + (sol.mass_shift.value - previous_dm) / (m_minus - previous_m);  // dM_+/dM_-
-      a.flags.near_branch_point |= std::abs(slope) < 1e-2;
-    }
-    previous_dm = sol.mass_shift.value;
-    previous_m = m_minus;
-    if (std::abs(next - m_minus) <= 1e-14 * seed || !(next > 0)) break;
-    m_minus = next;
+  };
+  const RemnantSearch search = find_remnants(seed, shift);
+  if (search.roots.empty()) {
+    const std::string why = unresolved ? unresolved->what()
+                            : absent   ? absent->what()
+                                       : "no remnant M_- with M_- + DeltaM(M_-) = M_+ (static bubbles exist, but "
+                                         "none fits this seed)";
+    ActionPoint f = fallback_point(s, seed, why);
+    f.flags.resolution_limit = unresolved.has_value();
+    f.flags.remnant_free_regime = static_solution_heavier(s, o, seed);
+    if (f.flags.remnant_free_regime)
+      f.note += "; below the critical seed mass (a static solution exists at 10x the seed)";
+    return f;
   }
-  a.remnant_mass = sol.remnant_mass;
-  // B = 4 pi G (M_+ + M_-) DeltaM with DeltaM itself: M_+ - M_- can be below double precision.
+  ActionPoint a;
+  a.seed_mass = seed;
+  const RemnantRoot* best = nullptr;
+  for (const RemnantRoot& r : search.roots) {
+    // B = 4 pi G (M_+ + M_-) DeltaM with DeltaM itself: M_+ - M_- can be below double precision.
+    const double b = 4 * pi * s.newton_G * (2 * r.remnant_mass + r.mass_shift) * r.mass_shift;
+    if (!best || b < a.action.value) {
+      best = &r;
+      a.action.value = b;
+    }
+  }
+  const StaticSolution& sol = solved.at(best->remnant_mass);
   const double k = 4 * pi * s.newton_G * (2 * sol.remnant_mass + sol.mass_shift.value);
-  a.action = {k * sol.mass_shift.value, k * sol.mass_shift.error};
-  // Other branches need M_+(M_-) to fold over, which takes Delta M of order M somewhere: when the
-  // back-reaction is not negligible, scan lighter remnants for further solutions and keep the
-  // lowest B. (For Standard Model bubbles Delta M / M < 1e-9 and the scan is skipped.)
-  if (std::abs(sol.mass_shift.value) > 1e-4 * seed) {
-    int found = 1;
-    double prev_m = 0, prev_g = 0;
-    for (int i = 0; i <= 12; ++i) {
-      const double m = seed * std::pow(10.0, -2.0 + 2.0 * i / 12.0) * (1 - 1e-9);
-      double g;
-      try {
-        const StaticSolution trial = solve_static(*s.potential, m, o);
-        if (trial.at_resolution_limit) {  // not a solution to bracket with
-          prev_m = 0;
-          continue;
-        }
-        g = m + trial.mass_shift.value - seed;
-      } catch (const NumericalError& e) {
-        if (!is_no_solution(e)) throw;
-        prev_m = 0;
-        continue;
-      }
-      if (prev_m > 0 && (g < 0) != (prev_g < 0)) {
-        double lo = prev_m, hi = m, g_lo = prev_g;
-        for (int it = 0; it < 30; ++it) {
-          const double mid = std::sqrt(lo * hi);
-          const double gm = mid + solve_static(*s.potential, mid, o).mass_shift.value - seed;
-          if ((gm < 0) == (g_lo < 0)) {
-            lo = mid;
-            g_lo = gm;
-          } else {
-            hi = mid;
-          }
-        }
-        const StaticSolution other = solve_static(*s.potential, std::sqrt(lo * hi), o);
-        const double k2 = 4 * pi * s.newton_G * (2 * other.remnant_mass + other.mass_shift.value);
-        const double b2 = k2 * other.mass_shift.value;
-        if (std::abs(other.remnant_mass - a.remnant_mass) > 1e-6 * seed) {
-          ++found;
-          if (b2 < a.action.value) {
-            a.action = {b2, k2 * other.mass_shift.error};
-            a.remnant_mass = other.remnant_mass;
-            a.phi_horizon = other.phi_horizon;
-          }
-        }
-      }
-      prev_m = m;
-      prev_g = g;
-    }
-    a.flags.several_branches = found > 1;
-  }
-  if (a.remnant_mass == sol.remnant_mass) a.phi_horizon = sol.phi_horizon;
+  // The root's own mismatch M_- + DeltaM - M_+ adds to the error (B moves by about 8 pi G M_+ per
+  // unit of M_+).
+  const double mismatch = std::abs(sol.remnant_mass + sol.mass_shift.value - seed);
+  a.action.error = k * sol.mass_shift.error + 8 * pi * s.newton_G * seed * mismatch;
+  a.remnant_mass = sol.remnant_mass;
+  a.phi_horizon = sol.phi_horizon;
+  a.flags.several_branches = search.roots.size() > 1;
+  a.flags.near_branch_point = best->near_branch_point;
   a.flags.resolution_limit = sol.at_resolution_limit;
   a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
   a.note = sol.summary.message;
+  if (search.roots.size() > 1) a.note += fmt::format("; lowest B of {} remnant branches", search.roots.size());
   return a;
 }
 
@@ -221,7 +197,9 @@ ActionPoint probe_field(const TunnellingSetup& s, double seed) {
     a.note = sol.summary.message;
   } catch (const NumericalError& e) {
     if (!is_no_solution(e)) throw;
-    return fallback_point(s, seed, e.what());
+    ActionPoint f = fallback_point(s, seed, e.what());
+    f.flags.resolution_limit = wall_beyond_resolution(e);
+    return f;
   }
   return a;
 }

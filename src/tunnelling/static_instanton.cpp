@@ -2,11 +2,13 @@
 
 #include <fmt/format.h>
 
-#include <array>
 #include <cmath>
+#include <optional>
+#include <string>
 
 #include "ember/core/errors.hpp"
-#include "ember/core/odeint.hpp"
+#include "ember/tunnelling/landscape.hpp"
+#include "static_shooter.hpp"
 
 namespace ember::tunnelling {
 
@@ -19,160 +21,118 @@ void StaticOptions::validate() const {
   if (!(shooting_tolerance > 1e-16 && shooting_tolerance < 1e-3))
     throw InputError(fmt::format("static instanton options: shooting_tolerance = {}: must lie in (1e-16, 1e-3)",
                                  shooting_tolerance));
+  if (!(linear_gap > 1e-14 && linear_gap < 1e-3))
+    throw InputError(fmt::format("static instanton options: linear_gap = {}: must lie in (1e-14, 1e-3)", linear_gap));
+  if (!(thinnest_gap >= -700 && thinnest_gap <= -30))
+    throw InputError(fmt::format("static instanton options: thinnest_gap = {}: must lie in [-700, -30]", thinnest_gap));
 }
 
 namespace {
 
-using State = std::array<double, 3>;  // phi, psi = d phi/dx, DeltaM
+using detail::Aim;
+using detail::Shooter;
+using detail::Shot;
+using detail::ShotResult;
 
-enum class Shot { overshoot, undershoot };
-
-struct ShotResult {
-  Shot kind;
-  double mass_shift;  // DeltaM at the stop (tail added later)
-  double stop_x, stop_field;
-  double wall_x;
-  double max_residual;
+struct Bracket {
+  Aim under, over;
 };
 
-struct Shooter {
-  const higgs::Potential& pot;
-  double r_h;
-  double G;  // in the field equations and f (0 in the probe limit)
-  double rel;
-  double barrier_top;
-  long evaluations = 0;
+Aim field_aim(double ln_phi_h) {
+  return {Aim::Kind::log_field, ln_phi_h};
+}
+Aim gap_aim(double ln_delta) {
+  return {Aim::Kind::log_gap, ln_delta};
+}
 
-  double f_of(double x, double dm) const { return -std::expm1(-x) - 2 * G * dm / (r_h * std::exp(x)); }
+std::string seed_text(double mass) {
+  return fmt::format("M = {:.4g} GeV ({:.4g} M_Pl)", mass, mass / units::planck_mass);
+}
 
-  void rhs(const State& s, State& ds, double x) {
-    ++evaluations;
-    const double r = r_h * std::exp(x), r2 = r * r;
-    const double v = pot.value(s[0]), dv = pot.slope(s[0]);
-    const double f = f_of(x, s[2]);
-    ds[0] = s[1];
-    ds[1] = (r2 * dv - (1 - 8 * units::pi * G * r2 * v) * s[1]) / f;
-    ds[2] = 4 * units::pi * r * (0.5 * f * s[1] * s[1] + r2 * v);
-  }
-
-  // The regular solution a short way off the horizon, to second order in x (derived from the
-  // equations above by L'Hopital's rule at f = 0).
-  std::pair<double, State> start(double phi_h) const {
-    const double v = pot.value(phi_h), dv = pot.slope(phi_h), d2v = pot.curvature(phi_h);
-    const double q = 1 - 8 * units::pi * G * r_h * r_h * v;
-    const double psi_h = r_h * r_h * dv / q;
-    const double n_x = 2 * r_h * r_h * dv + r_h * r_h * d2v * psi_h +
-                       8 * units::pi * G * (2 * r_h * r_h * v + r_h * r_h * dv * psi_h) * psi_h;
-    const double a = n_x / (2 * q);
-    const double x0 = 1e-7;
-    return {x0, {phi_h + psi_h * x0 + 0.5 * a * x0 * x0, psi_h + a * x0, 4 * units::pi * r_h * r_h * r_h * v * x0}};
-  }
-
-  ShotResult shoot(double ln_phi_h) {
-    namespace odeint = boost::numeric::odeint;
-    const double phi_h = std::exp(ln_phi_h);
-    auto [x, s] = start(phi_h);
-    using Checker = odeint::default_error_checker<double, odeint::array_algebra, odeint::default_operations>;
-    // Absolute floor on each component: a tiny fraction of its natural scale.
-    odeint::controlled_runge_kutta<odeint::runge_kutta_fehlberg78<State>> stepper(Checker(0.0, rel));
-    const auto sys = [this](const State& a, State& b, double t) { rhs(a, b, t); };
-    double h = 1e-7, wall = 0, worst = 0;  // worst: unused here, see field_residual
-    // Near a true minimum psi is tiny and its rounding can flip its sign: an undershoot needs psi
-    // to turn clearly positive, against the largest |psi| seen so far.
-    double psi_scale = std::abs(s[1]);
-    for (long steps = 0; steps < 500000; ++steps) {
-      const State before = s;
-      const double x_before = x;
-      if (stepper.try_step(sys, s, x, h) == odeint::fail) {
-        // Steps collapsing means f -> 0: a second horizon would form just outside the first, a
-        // singular shot. Near the escape point, where this happens, it is an undershoot.
-        if (h < 1e-14 * x || f_of(x, s[2]) <= 0) return {Shot::undershoot, s[2], x, s[0], wall, worst};
-        continue;
-      }
-      if (wall == 0 && s[0] <= barrier_top) wall = x;
-      if (s[0] < 0) {
-        const double frac = before[0] / (before[0] - s[0]);
-        return {
-            Shot::overshoot, before[2] + frac * (s[2] - before[2]), x_before + frac * (x - x_before), 0.0, wall, worst};
-      }
-      psi_scale = std::max(psi_scale, std::abs(s[1]));
-      if (s[1] > 1e-9 * psi_scale) return {Shot::undershoot, s[2], x, s[0], wall, worst};
-      if (!std::isfinite(s[0]) || !std::isfinite(s[1]) || !std::isfinite(s[2]))
-        return {Shot::overshoot, before[2], x_before, 0.0, wall, worst};
-      if (x > 700) return {Shot::undershoot, s[2], x, s[0], wall, worst};
+// Up from the escape point in ln phi_h by 1/2 until a shot overshoots. Returns nullopt when a
+// true minimum exists and the first overshoot comes only at (or not even at) the cap just below
+// it: the wall may be thinner than ln phi_h resolves, and the caller re-brackets in ln delta from
+// `last_under`.
+std::optional<Bracket> bracket_in_field(Shooter& sh, double s_escape, double s_top, bool has_minimum, double mass,
+                                        double& last_under) {
+  double s_under = s_escape, s_over = s_under;
+  for (int i = 0;; ++i) {
+    s_over = std::min(s_over + 0.5, s_top - 1e-12);
+    const bool at_cap = s_over >= s_top - 1e-12;
+    const bool over = sh.shoot(field_aim(s_over)).kind == Shot::overshoot;
+    if (at_cap && has_minimum) {
+      last_under = s_under;
+      return std::nullopt;
     }
-    return {Shot::undershoot, s[2], x, s[0], wall, worst};
+    if (over) return Bracket{field_aim(s_under), field_aim(s_over)};
+    s_under = s_over;
+    if (at_cap || i > 400)
+      throw NumericalError("static instanton shooting",
+                           fmt::format("no overshoot for phi_h up to {:.4g} GeV around {}: no static bubble at this "
+                                       "mass",
+                                       std::exp(s_over), seed_text(mass)));
   }
+}
 
-  // The direct Euclidean action along the shot from ln phi_h (see the header): integrates
-  // D = int 4 pi G psi^2 dx (so delta = D - D_inf) and K = int 4 pi r^3 e^D V dx with the field.
-  double direct_action(double ln_phi_h, double dm_total) {
-    namespace odeint = boost::numeric::odeint;
-    using Big = std::array<double, 5>;
-    const double phi_h = std::exp(ln_phi_h);
-    auto [x, s0] = start(phi_h);
-    Big s{s0[0], s0[1], s0[2], 0.0, 0.0};
-    const auto sys = [this](const Big& a, Big& b, double t) {
-      State da;
-      rhs({a[0], a[1], a[2]}, da, t);
-      const double r = r_h * std::exp(t);
-      b = {da[0], da[1], da[2], 4 * units::pi * G * a[1] * a[1],
-           4 * units::pi * r * r * r * std::exp(a[3]) * pot.value(a[0])};
-    };
-    using Checker = odeint::default_error_checker<double, odeint::array_algebra, odeint::default_operations>;
-    odeint::controlled_runge_kutta<odeint::runge_kutta_fehlberg78<Big>> stepper(Checker(0.0, rel));
-    double h = 1e-7;
-    for (long steps = 0; steps < 2000000; ++steps) {
-      const Big before = s;
-      if (stepper.try_step(sys, s, x, h) == odeint::fail) continue;
-      if (s[0] < 0 || s[1] > 0 || !std::isfinite(s[4])) {
-        s = before;
-        break;
-      }
-    }
-    const double d_inf = s[3], bulk = std::exp(-d_inf) * s[4];
-    const double m_minus = r_h / (2 * G), m_plus = m_minus + dm_total, beta = 8 * units::pi * G * m_plus;
-    const double b = 8 * units::pi * G * r_h * r_h * pot.value(phi_h);
-    // deficit / 2 pi = 1 - (1 + DeltaM/M_-)(1 - b) e^{delta_h}, formed without cancellation.
-    const double deficit = -2 * units::pi * std::expm1(std::log1p(dm_total / m_minus) + std::log1p(-b) - d_inf);
-    const double area = 4 * units::pi * r_h * r_h;
-    return -beta * bulk - deficit * area / (8 * units::pi * G);
+// Down in ln delta (delta = phi_t - phi_h) from the last undershoot, by 2 until a shot overshoots.
+Bracket bracket_in_gap(Shooter& sh, const detail::TrueMinimum& t, double escape, double s_under, const StaticOptions& o,
+                       double mass) {
+  const double t_escape = std::log(t.phi - escape), t_thinnest = std::log(t.phi) + o.thinnest_gap;
+  double t_under = std::min(std::log(-t.phi * std::expm1(s_under - std::log(t.phi))), t_escape);
+  // Launched from the linearised interior this shot can differ from its ln phi_h twin: if it
+  // overshoots, step back up toward the escape point (which undershoots).
+  for (double t_over = t_under; sh.shoot(gap_aim(t_under)).kind == Shot::overshoot; t_over = t_under) {
+    if (t_under >= t_escape)
+      throw NumericalError(
+          "static instanton shooting",
+          fmt::format("the shot from the escape point overshoots in ln delta around {}", seed_text(mass)));
+    t_under = std::min(t_under + 0.5, t_escape);
+    if (sh.shoot(gap_aim(t_under)).kind == Shot::undershoot) return {gap_aim(t_under), gap_aim(t_over)};
   }
+  for (double t_over = t_under - 2;; t_over -= 2) {
+    if (t_over < t_thinnest)
+      throw NumericalError("static instanton resolution",
+                           fmt::format("no overshoot for phi_h up to phi_t - {:.3g} phi_t (phi_t = {:.4g} GeV) around "
+                                       "{}: no static bubble with a wall we resolve",
+                                       std::exp(t_over + 2) / t.phi, t.phi, seed_text(mass)));
+    if (sh.shoot(gap_aim(t_over)).kind == Shot::overshoot) return {gap_aim(t_under), gap_aim(t_over)};
+    t_under = t_over;
+  }
+}
 
-  // Residual of the field equation along the shot from ln phi_h: the solution is re-integrated
-  // with dense output (Dormand-Prince 5(4)), sampled every `dx`, and d psi/dx from a fourth-order
-  // central difference of the samples is compared with the right-hand side, relative to the
-  // larger of |d psi/dx| and |psi|.
-  double field_residual(double ln_phi_h, double x_end, double dx) {
-    namespace odeint = boost::numeric::odeint;
-    auto [x0, s] = start(std::exp(ln_phi_h));
-    const auto sys = [this](const State& a, State& b, double t) { rhs(a, b, t); };
-    auto stepper = odeint::make_dense_output(rel, rel, odeint::runge_kutta_dopri5<State>());
-    std::vector<State> samples;
-    std::vector<double> xs;
-    // A shot so close to the bracket is very sensitive: a different integrator parts from the
-    // solution somewhat earlier. The check stops where this trajectory over- or undershoots.
-    struct Parted {};
-    try {
-      odeint::integrate_const(stepper, sys, s, x0, x_end, dx, [&](const State& st, double t) {
-        if (st[0] < 0 || st[1] > 0 || !std::isfinite(st[0])) throw Parted{};
-        samples.push_back(st);
-        xs.push_back(t);
-      });
-    } catch (const Parted&) {
-    }
-    double worst = 0;
-    for (std::size_t i = 2; i + 2 < samples.size(); ++i) {
-      const double d =
-          (-samples[i + 2][1] + 8 * samples[i + 1][1] - 8 * samples[i - 1][1] + samples[i - 2][1]) / (12 * dx);
-      State ds;
-      rhs(samples[i], ds, xs[i]);
-      const double scale = std::max(std::abs(ds[1]), std::abs(samples[i][1])) + 1e-300;
-      worst = std::max(worst, std::abs(d - ds[1]) / scale);
-    }
-    return worst;
-  }
+struct Bisection {
+  Aim under, over;
+  ShotResult under_shot, over_shot;
+  int steps = 0;
+  bool closed = false;
 };
+
+Bisection bisect(Shooter& sh, const Bracket& b, double tolerance) {
+  Bisection out{b.under, b.over, {}, {}, 0, false};
+  bool have_over = false, have_under = false;
+  const auto wide = [&] {
+    return std::abs(out.over.param - out.under.param) > tolerance * std::max(1.0, std::abs(out.over.param));
+  };
+  for (; out.steps < 400 && wide(); ++out.steps) {
+    Aim mid = out.under;
+    mid.param = 0.5 * (out.under.param + out.over.param);
+    if (mid.param == out.under.param || mid.param == out.over.param) break;
+    const ShotResult r = sh.shoot(mid);
+    if (r.kind == Shot::overshoot) {
+      out.over = mid;
+      out.over_shot = r;
+      have_over = true;
+    } else {
+      out.under = mid;
+      out.under_shot = r;
+      have_under = true;
+    }
+  }
+  if (!have_over) out.over_shot = sh.shoot(out.over);
+  if (!have_under) out.under_shot = sh.shoot(out.under);
+  out.closed = !wide();
+  return out;
+}
 
 }  // namespace
 
@@ -182,65 +142,47 @@ StaticSolution solve_static(const higgs::Potential& pot, double mass, const Stat
     throw InputError(fmt::format("static instanton: mass {} GeV; expected a finite mass > 0", mass));
   const Landscape L = analyse_landscape(pot, o.scan_from > 0 ? o.scan_from : pot.field_max() * 1e-40);
   const double r_h = 2 * o.newton_G * mass;
-  Shooter sh{pot, r_h, o.back_reaction ? o.newton_G : 0.0, o.relative_tolerance, L.barrier_top};
+  std::optional<detail::TrueMinimum> minimum;
+  if (L.true_minimum) {
+    const double t = *L.true_minimum;
+    minimum = detail::TrueMinimum{t, pot.value(t), pot.curvature(t), o.linear_gap * (t - L.barrier_top)};
+  }
+  Shooter sh(pot, r_h, o.back_reaction ? o.newton_G : 0.0, o.relative_tolerance, L.barrier_top, minimum);
 
-  // Bracket ln phi_h: the escape point should undershoot; go up until a shot overshoots.
-  double s_under = std::log(L.escape), s_over = s_under;
-  const double s_top = std::log(L.true_minimum ? *L.true_minimum : pot.field_max());
-  // For very heavy holes (about 1e13 M_Pl in the Standard Model) even the escape point overshoots
-  // and there is nothing to bracket: say so rather than bisect onto a wrong end.
-  if (sh.shoot(s_under).kind == Shot::overshoot)
+  // Bracket: the escape point should undershoot; go up until a shot overshoots. For very heavy
+  // holes (about 1e13 M_Pl in the Standard Model) even the escape point overshoots and there is
+  // nothing to bracket: say so rather than bisect onto a wrong end.
+  const double s_escape = std::log(L.escape);
+  if (sh.shoot(field_aim(s_escape)).kind == Shot::overshoot)
     throw NumericalError("static instanton shooting",
-                         fmt::format("phi_h at the escape point {:.4g} GeV already overshoots around M = {:.4g} GeV "
-                                     "({:.4g} M_Pl): the static bubble is not bracketed",
-                                     L.escape, mass, mass / units::planck_mass));
-  for (int i = 0;; ++i) {
-    s_over = std::min(s_over + 0.5, s_top - 1e-12);
-    if (sh.shoot(s_over).kind == Shot::overshoot) break;
-    s_under = s_over;
-    if (s_over >= s_top - 1e-12 || i > 400)
-      throw NumericalError(
-          "static instanton shooting",
-          fmt::format("no overshoot for phi_h up to {:.4g} GeV around M = {:.4g} GeV ({:.4g} M_Pl): no static "
-                      "bubble at this mass",
-                      std::exp(s_over), mass, mass / units::planck_mass));
-  }
-  ShotResult over{}, under{};
-  bool have_over = false, have_under = false;
-  int n = 0;
-  for (; n < 400 && s_over - s_under > o.shooting_tolerance * std::max(1.0, std::abs(s_over)); ++n) {
-    const double mid = 0.5 * (s_over + s_under);
-    if (mid == s_over || mid == s_under) break;
-    const ShotResult r = sh.shoot(mid);
-    if (r.kind == Shot::overshoot) {
-      s_over = mid;
-      over = r;
-      have_over = true;
-    } else {
-      s_under = mid;
-      under = r;
-      have_under = true;
-    }
-  }
-  if (!have_over) over = sh.shoot(s_over);
-  if (!have_under) under = sh.shoot(s_under);
+                         fmt::format("phi_h at the escape point {:.4g} GeV already overshoots around {}: the static "
+                                     "bubble is not bracketed",
+                                     L.escape, seed_text(mass)));
+  double last_under = s_escape;
+  const double s_top = std::log(L.true_minimum ? *L.true_minimum : pot.field_max());
+  std::optional<Bracket> bracket = bracket_in_field(sh, s_escape, s_top, minimum.has_value(), mass, last_under);
+  if (!bracket) bracket = bracket_in_gap(sh, *minimum, L.escape, last_under, o, mass);
+  const Bisection bis = bisect(sh, *bracket, o.shooting_tolerance);
+  const ShotResult &under = bis.under_shot, &over = bis.over_shot;
 
   StaticSolution out;
-  // Unresolved: the bracket did not close, or the solution lies closer to the true minimum than
-  // ln phi_h can resolve (the overshoot end never left the cap just below phi_true).
-  const bool capped = !have_over && s_over >= s_top - 2e-12;
-  out.at_resolution_limit = capped || s_over - s_under > o.shooting_tolerance * std::max(1.0, std::abs(s_over));
+  // Unresolved: the bracket did not close before double precision ran out.
+  out.at_resolution_limit = !bis.closed;
   // Tail of the undershoot: phi ~ C/r beyond its stop, 2 pi C^2 / R (f ~ 1 there).
   const double r_stop = r_h * std::exp(under.stop_x), c = under.stop_field * r_stop;
   const double tail = 2 * units::pi * c * c / r_stop;
   const double dm_low = under.mass_shift + tail, dm_high = over.mass_shift;
   out.mass_shift = {0.5 * (dm_low + dm_high),
                     0.5 * std::abs(dm_high - dm_low) + o.relative_tolerance * std::abs(dm_low)};
-  out.phi_horizon = std::exp(0.5 * (s_over + s_under));
+  Aim mid = bis.under;
+  mid.param = 0.5 * (bis.under.param + bis.over.param);
+  out.phi_horizon = sh.phi_horizon(mid);
+  if (mid.kind == Aim::Kind::log_gap) out.horizon_gap = std::exp(mid.param);
   out.bubble_radius = r_h * std::exp(under.wall_x);
-  // Checked up to where the two ends of the bracket part (beyond, the shot is not the solution).
-  const double x_check = std::min(under.stop_x, over.stop_x) * 0.95;
-  out.max_residual = sh.field_residual(s_under, x_check, x_check / 20000);
+  // Checked from the launch up to where the two ends of the bracket part (beyond, the shot is not
+  // the solution).
+  const double x_check = under.launch_x + 0.95 * (std::min(under.stop_x, over.stop_x) - under.launch_x);
+  out.max_residual = sh.field_residual(bis.under, x_check, 20000);
   if (o.back_reaction) {
     out.remnant_mass = mass;
     out.seed_mass = mass + out.mass_shift.value;
@@ -251,23 +193,35 @@ StaticSolution solve_static(const higgs::Potential& pot, double mass, const Stat
     const double k = 8 * units::pi * o.newton_G * mass;  // 1 / T_H
     out.action = {k * out.mass_shift.value, k * out.mass_shift.error};
   }
-  if (o.direct_action && o.back_reaction) out.direct_action = sh.direct_action(s_under, out.mass_shift.value);
+  if (o.direct_action && o.back_reaction) out.direct_action = sh.direct_action(bis.under, out.mass_shift.value);
   if (!(out.action.value > 0) || !std::isfinite(out.action.value) || !std::isfinite(out.action.error))
     throw NumericalError("static instanton shooting",
                          fmt::format("B = {:.6g} +- {:.2g} around M = {:.4g} M_Pl (phi_h = {:.4g} GeV): expected a "
                                      "finite B > 0",
                                      out.action.value, out.action.error, mass / units::planck_mass, out.phi_horizon));
+  const int n = bis.steps;
+  const long evaluations = sh.evaluations();
   out.summary.bisections = n;
-  out.summary.rhs_evaluations = sh.evaluations;
+  out.summary.rhs_evaluations = evaluations;
   const double rel_err = std::abs(out.action.error / out.action.value);
   out.summary.status =
       (rel_err < 1e-4 && !out.at_resolution_limit) ? BounceStatus::converged : BounceStatus::not_converged;
   out.summary.message = fmt::format(
       "{} static bubble around M = {:.6g} M_Pl: B = {:.8g} +- {:.2g}, Delta M / M = {:.4g}, phi_h = {:.6g} GeV, "
-      "bubble at r = {:.4g} r_h; {} bisections, {} evaluations, residual {:.1e}",
+      "bubble at r = {:.4g} r_h{}; {} bisections, {} evaluations, residual {:.1e}",
       o.back_reaction ? "back-reacted" : "probe", mass / units::planck_mass, out.action.value, out.action.error,
-      out.mass_shift.value / mass, out.phi_horizon, out.bubble_radius / r_h, n, sh.evaluations, out.max_residual);
+      out.mass_shift.value / mass, out.phi_horizon, out.bubble_radius / r_h,
+      out.horizon_gap ? fmt::format(" (phi_t - phi_h = {:.3g} phi_t)", *out.horizon_gap / *L.true_minimum) : "", n,
+      evaluations, out.max_residual);
   return out;
+}
+
+bool no_static_solution(const NumericalError& e) {
+  return e.solver() == "static instanton shooting" || wall_beyond_resolution(e);
+}
+
+bool wall_beyond_resolution(const NumericalError& e) {
+  return e.solver() == "static instanton resolution";
 }
 
 }  // namespace ember::tunnelling

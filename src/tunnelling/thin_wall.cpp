@@ -28,6 +28,35 @@ double static_bubble_energy(const ThinWall& w) {
   return 16 * units::pi * std::pow(w.sigma, 3) / (3 * w.epsilon * w.epsilon);
 }
 
+namespace {
+
+// The remnant horizon r_- of the interior Schwarzschild-AdS metric, 1 - 2 G M_-/r + r^2/L^2 = 0,
+// i.e. r + r^3/L^2 = 2 G M_- (one positive root); Newton's method from r = 2 G M_-, where the
+// left side is convex and increasing, converges from above.
+double interior_horizon(double m_minus, double inv_l2, double G) {
+  const double target = 2 * G * m_minus;
+  double r = target;
+  for (int i = 0; i < 200; ++i) {
+    const double step = (r + r * r * r * inv_l2 - target) / (1 + 3 * r * r * inv_l2);
+    r -= step;
+    if (std::abs(step) <= 1e-16 * r) break;
+  }
+  return r;
+}
+
+// M_- of the junction is the interior metric's mass parameter, which counts the true vacuum's
+// negative energy inside r_- too: the remnant hole, as the numerical solver defines it, has the
+// horizon mass r_- / (2G) = M_- - r_-^3 / (2 G L^2) (derived from the line above). B is the drop in
+// horizon area, B = pi (r_+^2 - r_-^2) / G = 4 pi G (M_+ + M_h)(M_+ - M_h), formed from
+// M_+ - M_h = Delta + r_-^3 / (2 G L^2) without cancellation.
+SeededWall wall_at(double radius, double seed, double delta, double inv_l2, double G) {
+  const double r_minus = interior_horizon(seed - delta, inv_l2, G);
+  const double gap = delta + r_minus * r_minus * r_minus * inv_l2 / (2 * G), horizon_mass = seed - gap;
+  return {radius, horizon_mass, 4 * units::pi * G * (seed + horizon_mass) * gap};
+}
+
+}  // namespace
+
 std::vector<SeededWall> seeded_thin_walls(const ThinWall& w, double seed, double G) {
   const double k = 4 * units::pi * G * w.sigma;
   const double inv_l2 = 8 * units::pi * G * w.epsilon / 3;  // 1 / L^2
@@ -63,8 +92,7 @@ std::vector<SeededWall> seeded_thin_walls(const ThinWall& w, double seed, double
         }
       }
       const double r = std::exp(0.5 * (a + b)), d = delta(r), m_minus = seed - d;
-      // B = 4 pi G (M_+ + M_-)(M_+ - M_-), formed from the difference itself (no cancellation).
-      if (d >= 0 && m_minus >= 0) out.push_back({r, m_minus, 4 * units::pi * G * (2 * seed - d) * d});
+      if (d >= 0 && m_minus >= 0) out.push_back(wall_at(r, seed, d, inv_l2, G));
     }
     prev_u = u;
     prev = cur;

@@ -20,12 +20,16 @@
 //
 // Shooting on ln phi_h by bisection: overshoot when phi crosses the false vacuum, undershoot
 // when psi turns positive. The tail phi ~ C/r beyond the last radius adds 2 pi C^2 / R to the
-// energy (derived, f ~ 1 there).
+// energy (derived, f ~ 1 there). A thin wall's interior sits exponentially close to the true
+// minimum phi_t, closer than ln phi_h resolves: when the shots reach phi_t (1 - 1e-12) without
+// overshooting, the bracket is redone in ln delta, delta = phi_t - phi_h, and those shots leave
+// the horizon on the equations linearised about phi_t until phi_t - phi reaches linear_gap.
 #pragma once
 
 #include <optional>
 #include <string>
 
+#include "ember/core/errors.hpp"
 #include "ember/core/estimate.hpp"
 #include "ember/higgs/potential.hpp"
 #include "ember/tunnelling/flat_bounce.hpp"
@@ -41,8 +45,15 @@ struct StaticOptions {
   double newton_G = units::newton_G;
   // Step control: accept a step when its error is below this, relative.
   double relative_tolerance = 1e-10;
-  // Stop bisecting on ln phi_h when the bracket is narrower than this.
+  // Stop bisecting on ln phi_h (or ln delta) when the bracket is narrower than this, relative to
+  // max(1, |parameter|).
   double shooting_tolerance = 1e-13;
+  // Linearise about the true minimum while phi_t - phi is below this fraction of phi_t - phi_top
+  // (the neglected terms are of that relative size; below it phi itself carries too few digits).
+  double linear_gap = 1e-8;
+  // Give up re-bracketing in ln delta when delta / phi_t falls below e^thinnest_gap: a wall that
+  // thin is reported as no static bubble we resolve.
+  double thinnest_gap = -400;
   // The barrier is searched from this field upward (GeV); 0: field_max * 1e-40.
   double scan_from = 0;
   // Also evaluate the Euclidean action directly (back-reaction only), as a check of the area
@@ -53,14 +64,15 @@ struct StaticOptions {
 };
 
 struct StaticSolution {
-  double remnant_mass = 0;           // M_- (GeV); the background mass in the probe limit
-  double seed_mass = 0;              // M_+ = M_- + DeltaM; equal to M_- in the probe limit
-  Estimate mass_shift;               // DeltaM (GeV), or the field energy E in the probe limit
-  Estimate action;                   // B
-  double phi_horizon = 0;            // GeV
-  double bubble_radius = 0;          // where phi passes the barrier top (GeV^-1)
-  double max_residual = 0;           // largest relative residual of the field equation along the solution
-  bool at_resolution_limit = false;  // the bracket reached double precision before converging
+  double remnant_mass = 0;            // M_- (GeV); the background mass in the probe limit
+  double seed_mass = 0;               // M_+ = M_- + DeltaM; equal to M_- in the probe limit
+  Estimate mass_shift;                // DeltaM (GeV), or the field energy E in the probe limit
+  Estimate action;                    // B
+  double phi_horizon = 0;             // GeV
+  std::optional<double> horizon_gap;  // phi_t - phi_h (GeV), when shot from the true minimum
+  double bubble_radius = 0;           // where phi passes the barrier top (GeV^-1)
+  double max_residual = 0;            // largest relative residual of the field equation along the solution
+  bool at_resolution_limit = false;   // the bracket reached double precision before converging
   // The Euclidean action computed directly, relative to the Schwarzschild hole of mass M_+ at the
   // same temperature (derived; Gregory, Moss & Withers 2014 for the method): with the on-shell
   // bulk Lagrangian -V (from R = 8 pi G ((d phi)^2 + 4V)), beta = 8 pi G M_+, the asymptotic
@@ -73,8 +85,16 @@ struct StaticSolution {
 };
 
 // Solves for the static bubble around a hole of mass `mass` (M_- with back-reaction, the
-// background mass in the probe limit). Throws NumericalError ("static instanton shooting") when
+// background mass in the probe limit). Throws NumericalError ("static instanton resolution") when
+// the shots reach e^thinnest_gap of the true minimum without bracketing (a wall too thin to
+// resolve), and NumericalError ("static instanton shooting") when
 // no bracket is found: then no static solution exists at this mass.
 StaticSolution solve_static(const higgs::Potential& potential, double mass, const StaticOptions& options = {});
+
+// Whether an error from solve_static says there is no static solution (either kind above), as
+// opposed to a failure of the solver itself.
+bool no_static_solution(const NumericalError& e);
+// Whether it says the wall is too thin to resolve (the first kind).
+bool wall_beyond_resolution(const NumericalError& e);
 
 }  // namespace ember::tunnelling

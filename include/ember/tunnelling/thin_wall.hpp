@@ -17,7 +17,9 @@
 // with k = 4 pi G sigma and b(R) = G (M_+ - M_-)/(k R^2) + R/(2 k L^2) - k R/2,
 //   b = sqrt(f_+)          (the junction condition, sqrt(f_-) - sqrt(f_+) = k R), and
 //   b b' = G M_+ / R^2     (force balance: the wall's R'' = 0, with M_- held fixed),
-// and B = 4 pi G (M_+^2 - M_-^2). For a given M_+ the first fixes M_- at each R and the second is
+// and B = (A_+ - A_-)/(4G), the drop in horizon area. M_- here is the interior metric's mass
+// parameter; the remnant hole's horizon r_- (from f_-(r_-) = 0) gives the remnant mass reported,
+// r_- / (2G), and A_- = 4 pi r_-^2. For a given M_+ the first fixes M_- at each R and the second is
 // a root in R; several roots are several branches, none means no static wall. In the probe limit
 // (R >> r_h, G sigma R << 1) the static wall is the O(3) thermal bubble at T_H: R = 2 sigma/eps,
 // E = 16 pi sigma^3 / (3 eps^2) and B = E / T_H = 8 pi G M E (derived).
@@ -46,8 +48,8 @@ double static_bubble_energy(const ThinWall& w);
 
 struct SeededWall {
   double radius;        // GeV^-1
-  double remnant_mass;  // M_- (GeV)
-  double action;        // B = 4 pi G (M_+^2 - M_-^2)
+  double remnant_mass;  // the remnant's horizon mass r_- / (2G) (GeV)
+  double action;        // B = (A_+ - A_-)/(4G) = 4 pi G (M_+^2 - (r_-/2G)^2)
 };
 // Every static wall around a hole of mass `seed` (GeV), lowest action first; empty if none.
 std::vector<SeededWall> seeded_thin_walls(const ThinWall& w, double seed, double newton_G);
