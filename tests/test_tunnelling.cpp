@@ -172,9 +172,12 @@ TEST_CASE("probe-limit and back-reacted bubbles agree as G E -> 0") {
 TEST_CASE("probe-limit rescaling: B(a M; V) = a^2 B(M; a^2 V)") {
   // Derived: with r = a rho, the probe field equation (r^2 f phi')' = r^2 V'(phi) for mass a M and
   // V becomes that for mass M and a^2 V, the energy E = a E~, so B = 8 pi G M E gains a^2. For a
-  // pure quartic, a^2 V is V again after phi -> phi/a, which makes B independent of M (issue 6);
-  // but a pure negative quartic has no barrier and no static bubble, so the law is tested on a
-  // potential with one.
+  // pure quartic, a^2 V is V again after phi -> phi/a, which makes B independent of M (issue 6).
+  // But a pure negative quartic has no static bubble at all (derived): integrating the field
+  // equation from the horizon, r^2 f phi' = int r^2 lambda phi^3 dr < 0 and falls without bound
+  // (a tail phi >= C/r makes the integral diverge like ln r), so every positive profile crosses
+  // phi = 0: every shot overshoots. The law is therefore tested on potentials with a barrier,
+  // and the pure quartic must be refused rather than given a B.
   StaticOptions probe;
   probe.back_reaction = false;
   const double scale = 1e11;
@@ -227,6 +230,16 @@ TEST_CASE("static solutions converge and satisfy the field equation along the wa
     CHECK(wall_beyond_resolution(e));
     CHECK(no_static_solution(e));
   }
+  // At the default limit (e^-400) a toy 16 times thinner (phi_t - phi_h ~ e^-470 phi_t,
+  // extrapolated from the doubling per halving measured above) falls back, flagged.
+  const auto thinnest = thin_wall_toy(aa / 16, 0.05 / 16);
+  TunnellingSetup setup;
+  setup.potential = &thinnest;
+  setup.semiclassical_floor = 0;
+  const ActionPoint beyond = action_at(Prescription::probe_field, setup, 0.3 * 256 * reference);
+  CHECK(beyond.flags.fallback);
+  CHECK(beyond.flags.resolution_limit);
+  CHECK_FALSE(beyond.flags.remnant_free_regime);
   shallow.thinnest_gap = -10;
   CHECK_THROWS_WITH_AS(shallow.validate(), doctest::Contains("thinnest_gap"), ember::InputError);
 }

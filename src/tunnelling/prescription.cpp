@@ -149,7 +149,8 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
                                          "none fits this seed)";
     ActionPoint f = fallback_point(s, seed, why);
     f.flags.resolution_limit = unresolved.has_value();
-    f.flags.remnant_free_regime = static_solution_heavier(s, o, seed);
+    // A wall too thin to resolve says nothing about the critical seed mass.
+    f.flags.remnant_free_regime = !unresolved && static_solution_heavier(s, o, seed);
     if (f.flags.remnant_free_regime)
       f.note += "; below the critical seed mass (a static solution exists at 10x the seed)";
     return f;
