@@ -85,6 +85,13 @@ TEST_CASE("formation and abundance conversions") {
     const double carr =
         1 / (7.06e-18 / std::sqrt(0.2) * std::pow(0.6766 / 0.67, 2) * std::pow(g / 106.75, 0.25) * std::sqrt(m / 1e15));
     CHECK(close(omega_per_beta, carr, 0.02));
+    // Carr, Kohri, Sendouda & Yokoyama, PRD 81 (2010) 104019 (from memory; the paper's text was
+    // not available to check), in their earlier normalisation to h = 0.72 and the solar mass:
+    //   Omega_PBH = beta' (M/Msun)^-1/2 (h/0.72)^-2 / 1.15e-8,  beta' = gamma^1/2 (g*/106.75)^-1/4 beta.
+    // The same differences as above: 2%.
+    const double carr2010 = std::pow(0.6766 / 0.72, -2) * std::sqrt(0.2) * std::pow(g / 106.75, -0.25) /
+                            (1.15e-8 * std::sqrt(gram(m) / u::solar_mass));
+    CHECK(close(omega_per_beta, carr2010, 0.02));
     // Their eq. 5: beta = 7.99e-29 gamma^-1/2 (g*/106.75)^1/4 (M/Msun)^3/2 (n_PBH(t0) / Gpc^-3).
     const double n = population::comoving_number_per_beta(f) * std::pow(1e9 * u::parsec, 3);
     const double carr5 =
