@@ -46,7 +46,8 @@ int run(const RunOptions& o, const ExecutorFactory& factory) {
                              job.cache_directory ? " in " + job.cache_directory->string() : std::string(" (off)"),
                              results.tables_built);
   if (!o.quiet && results.units_resumed > 0)
-    std::cerr << fmt::format("ember: resumed {} finished units from {}\n", results.units_resumed, checkpoint.string());
+    std::cerr << fmt::format("ember: resumed {} finished units (tables and chunks) from {}\n", results.units_resumed,
+                             checkpoint.string());
   const report::Written written = report::write_outputs(loaded, results, out, !o.no_plots);
   scenario::Checkpoint::remove_folder(checkpoint);  // the outputs are whole: nothing left to resume
   if (o.json) {
@@ -90,9 +91,10 @@ Command add_run(CLI::App& parent, ExecutorFactory factory) {
                   "keep B(M) tables here between runs (default: $EMBER_CACHE_DIR, else $XDG_CACHE_HOME/ember, else "
                   "~/.cache/ember)");
   app->add_flag("--no-cache", o->no_cache, "build every B(M) table afresh and store none");
-  app->add_option("--checkpoint", o->checkpoint,
-                  "checkpoint finished units here as the run goes; rerunning the same command resumes "
-                  "(default: OUTPUT/.ember-checkpoint, removed once the outputs are written)");
+  app->add_option(
+      "--checkpoint", o->checkpoint,
+      "checkpoint finished work (tables, chunks of masses) here as the run goes; rerunning the same command resumes "
+      "(default: OUTPUT/.ember-checkpoint, removed once the outputs are written)");
   app->add_flag("--restart", o->restart, "discard a checkpoint (of this or another scenario) and start afresh");
   app->add_flag("--json", o->json, "print the summary as one JSON object on stdout");
   return {app, [o, factory = std::move(factory)] { return run(*o, factory); }};

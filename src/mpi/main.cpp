@@ -45,6 +45,9 @@ int main(int argc, char** argv) {
                const ember::scenario::UnitDone& d) const override {
         e->run(p, w, d);
       }
+      std::vector<std::string> share(std::vector<std::string> texts) const override {
+        return e->share(std::move(texts));
+      }
       bool assembles() const override { return e->assembles(); }
     };
     auto s = std::make_unique<Shared>();

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <chrono>
 #include <cstring>
 #include <deque>
@@ -41,6 +42,36 @@ int MpiExecutor::start(int code) const {
   MPI_Bcast(&code, 1, MPI_INT, 0, comm_);
   root_code_ = code;
   return code;
+}
+
+std::vector<std::string> MpiExecutor::share(std::vector<std::string> texts) const {
+  unsigned long long n = texts.size();
+  MPI_Bcast(&n, 1, MPI_UNSIGNED_LONG_LONG, 0, comm_);
+  std::vector<unsigned long long> sizes(n);
+  std::string all;
+  if (rank_ == 0)
+    for (std::size_t i = 0; i < n; ++i) {
+      sizes[i] = texts[i].size();
+      all += texts[i];
+    }
+  MPI_Bcast(sizes.data(), static_cast<int>(n), MPI_UNSIGNED_LONG_LONG, 0, comm_);
+  unsigned long long total = 0;
+  for (const auto z : sizes) total += z;
+  all.resize(total);
+  // In pieces that fit MPI's int count.
+  for (unsigned long long at = 0; at < total; at += 1ULL << 30) {
+    const int piece = static_cast<int>(std::min<unsigned long long>(1ULL << 30, total - at));
+    MPI_Bcast(all.data() + at, piece, MPI_CHAR, 0, comm_);
+  }
+  if (rank_ != 0) {
+    texts.assign(n, std::string());
+    unsigned long long at = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+      texts[i] = all.substr(at, sizes[i]);
+      at += sizes[i];
+    }
+  }
+  return texts;
 }
 
 void MpiExecutor::abort_with(int code, const std::string& message) const {

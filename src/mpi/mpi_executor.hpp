@@ -22,6 +22,8 @@ class MpiExecutor final : public scenario::Executor {
   MpiExecutor(MPI_Comm comm, int threads, int error_fd);
   void run(const std::vector<std::size_t>& pending, const scenario::UnitWork& work,
            const scenario::UnitDone& done) const override;
+  // Rank 0's texts to every rank (three broadcasts: the count, the sizes, the bytes).
+  std::vector<std::string> share(std::vector<std::string> texts) const override;
   bool assembles() const override { return rank_ == 0; }
   int rank() const { return rank_; }
   int size() const { return size_; }

@@ -29,16 +29,18 @@ Response response_at(double mass, const tunnelling::ActionTable& table, const Re
   return r;
 }
 
+std::vector<double> response_masses(double low, double high, int per_decade) {
+  if (!(high > low)) return {low};
+  const int n = std::max(2, static_cast<int>(std::ceil(std::log10(high / low) * per_decade)) + 1);
+  std::vector<double> out;
+  for (int i = 0; i < n; ++i) out.push_back(low * std::pow(high / low, static_cast<double>(i) / (n - 1)));
+  return out;
+}
+
 std::vector<Response> response_grid(double low, double high, int per_decade, const tunnelling::ActionTable& table,
                                     const ResponseContext& c) {
   std::vector<Response> out;
-  if (!(high > low)) {
-    out.push_back(response_at(low, table, c));
-    return out;
-  }
-  const int n = std::max(2, static_cast<int>(std::ceil(std::log10(high / low) * per_decade)) + 1);
-  for (int i = 0; i < n; ++i)
-    out.push_back(response_at(low * std::pow(high / low, static_cast<double>(i) / (n - 1)), table, c));
+  for (const double m : response_masses(low, high, per_decade)) out.push_back(response_at(m, table, c));
   return out;
 }
 

@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <chrono>
 #include <cmath>
 
@@ -17,6 +18,7 @@
 #include "ember/tunnelling/action_cache.hpp"
 #include "ember/tunnelling/landscape.hpp"
 #include "ember/version.hpp"
+#include "job_units.hpp"
 
 namespace ember::scenario {
 
@@ -38,15 +40,6 @@ std::unique_ptr<MassFunction> spectrum_at(const Spectrum& s, std::optional<doubl
     return population::critical_collapse(mass.value_or(c->cutoff_mass), c->exponent);
   const auto& t = std::get<TabulatedSpectrum>(s);
   return population::tabulated(t.file.string(), t.mass_unit);
-}
-
-population::AbundanceMeasure measure_of(AbundanceMeasure m) {
-  switch (m) {
-    case AbundanceMeasure::beta: return population::AbundanceMeasure::beta;
-    case AbundanceMeasure::f_pbh: return population::AbundanceMeasure::f_pbh;
-    case AbundanceMeasure::lightcone_count: return population::AbundanceMeasure::lightcone_count;
-  }
-  return population::AbundanceMeasure::beta;
 }
 
 std::vector<HiggsPoint> higgs_points(const StandardModelInputs& sm, const ScanChoices& scan) {
@@ -82,24 +75,8 @@ std::vector<HiggsPoint> higgs_points(const StandardModelInputs& sm, const ScanCh
   return out;
 }
 
-struct PointModel {
-  std::shared_ptr<const higgs::Running> running;
-  std::unique_ptr<higgs::Potential> potential;
-  const higgs::StandardModelPotential* sm = nullptr;
-  std::optional<higgs::StabilityReport> stability;
-  std::optional<std::string> no_decay;  // why there is no constraint at this point
-  std::optional<std::string> failure;   // a solver failed building this point's potential
-};
-
-// A solver's message as one line, for the unit records.
-std::string one_line(std::string text) {
-  for (char& c : text)
-    if (c == '\n' || c == '\r') c = ' ';
-  return text;
-}
-
-PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
-  PointModel m;
+detail::PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
+  detail::PointModel m;
   if (const auto* form = std::get_if<StandardModelForm>(&sm.potential)) {
     m.running = std::make_shared<const higgs::Running>(hp.inputs);
     auto pot = std::make_unique<higgs::StandardModelPotential>(
@@ -149,11 +126,17 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
                                     s.evaporation.mass_loss, o.cache_directory)
           .mass_loss;
   out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);
-  const auto base = spectrum_at(s.population.spectrum, std::nullopt, std::nullopt);
+  detail::JobPlan plan;
+  plan.scenario = &s;
+  plan.options = &o;
+  plan.background = &background;
+  plan.mass_loss = &mass_loss;
+  plan.base = spectrum_at(s.population.spectrum, std::nullopt, std::nullopt);
+  const MassFunction* base = plan.base.get();
   out.spectrum = base->description();
 
   // The scan: formation or characteristic masses, and widths for a lognormal spectrum.
-  std::vector<std::pair<double, std::optional<double>>> rows;
+  std::vector<std::pair<double, std::optional<double>>>& rows = plan.rows;
   const bool table_spectrum = std::holds_alternative<TabulatedSpectrum>(s.population.spectrum);
   const std::vector<double> widths =
       std::holds_alternative<Lognormal>(s.population.spectrum) ? s.scan.widths : std::vector<double>{};
@@ -168,7 +151,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   }
   // Formation masses the extended spectra need, across every row.
   double lo = base->low(), hi = base->high();
-  std::vector<std::unique_ptr<MassFunction>> row_spectra;
+  std::vector<std::unique_ptr<MassFunction>>& row_spectra = plan.row_spectra;
   for (const auto& [m, w] : rows) {
     row_spectra.push_back(table_spectrum ? spectrum_at(s.population.spectrum, std::nullopt, std::nullopt)
                                          : spectrum_at(s.population.spectrum, m, w));
@@ -185,164 +168,113 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     hi = std::min(hi, formable.high);
   }
 
-  population::ResponseContext context;
-  context.background = &background;
-  context.mass_loss = &mass_loss;
-  context.trajectory = s.evaporation.trajectory;
-  context.decay.prefactor = s.tunnelling.prefactor;
-  context.decay.grid_points = o.decay_grid_points;
-  context.collapse_fraction = s.population.collapse_fraction;
+  plan.context.background = &background;
+  plan.context.mass_loss = &mass_loss;
+  plan.context.trajectory = s.evaporation.trajectory;
+  plan.context.decay.prefactor = s.tunnelling.prefactor;
+  plan.context.decay.grid_points = o.decay_grid_points;
+  plan.context.collapse_fraction = s.population.collapse_fraction;
+  plan.table_options.points = o.table_points;
+  plan.table_options.midpoint_stride = o.table_check_stride;
+  if (!plan.monochromatic()) plan.grid = population::response_masses(lo, hi, o.responses_per_decade);
 
-  tunnelling::ActionTableOptions table_options;
-  table_options.points = o.table_points;
-  table_options.midpoint_stride = o.table_check_stride;
-
-  const std::vector<HiggsPoint> points = higgs_points(s.standard_model, s.scan);
+  plan.points = higgs_points(s.standard_model, s.scan);
+  const std::vector<HiggsPoint>& points = plan.points;
   const std::size_t n_presc = s.tunnelling.prescriptions.size();
   for (const Prescription p : s.tunnelling.prescriptions)
     out.outcomes.push_back({p, {}, 1.0, false, {}, {}, "", {}, {}, ""});
   for (int i = 0; i < o.plot_points; ++i)
-    out.plot_masses.push_back(s.tunnelling.semiclassical_floor *
-                              std::pow(1e10, static_cast<double>(i) / (o.plot_points - 1)));
+    plan.plot_masses.push_back(s.tunnelling.semiclassical_floor *
+                               std::pow(1e10, static_cast<double>(i) / (o.plot_points - 1)));
+  out.plot_masses = plan.plot_masses;
 
-  // Every Higgs point's potential and verdict, then every (point, prescription) unit: independent
-  // work, each writing only its own slot, so the results do not depend on the thread count.
-  std::vector<PointModel> models(points.size());
+  // Every Higgs point's potential and verdict, then the work items: independent, each writing
+  // only its own slot, so the results do not depend on the thread count.
+  plan.models.resize(points.size());
   parallel_for(points.size(), o.threads, [&](std::size_t i) {
     try {
-      models[i] = model_for(points[i], s.standard_model);
+      plan.models[i] = model_for(points[i], s.standard_model);
     } catch (const NumericalError& e) {
       // The central point's failure ends the run (nothing can be reported without it); a band
       // point's is recorded and the others go on (issue 9).
       if (points[i].central) throw;
-      models[i] = PointModel{};
-      models[i].failure = one_line(e.what());
+      plan.models[i] = detail::PointModel{};
+      plan.models[i].failure = detail::one_line(e.what());
     }
   });
+  const std::vector<detail::PointModel>& models = plan.models;
 
-  // Each unit is a pure function of its index, returned as exact text: the same numbers whether
-  // it ran here, on another thread, on another MPI rank or in an earlier, interrupted run.
-  const UnitWork compute = [&](std::size_t index) {
-    const std::size_t point = index / n_presc, k = index % n_presc;
-    const PointModel& model = models[point];
-    const bool central = points[point].central;
-    const Prescription p = s.tunnelling.prescriptions[k];
-    UnitResult unit;
-    unit.beta_max.assign(rows.size(), std::nullopt);
-    unit.f_max.assign(rows.size(), std::nullopt);
-    if (model.failure) {
-      unit.failure = *model.failure;
-      return to_text(unit);
-    }
-    try {
-      if (!(model.no_decay && p != Prescription::thin_wall)) {
-        tunnelling::TunnellingSetup setup;
-        setup.potential = model.potential.get();
-        setup.standard_model = model.sm;
-        if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
-          setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
-        setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
-        setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
-        const tunnelling::CachedTable cached =
-            tunnelling::cached_action_table(p, setup, table_options, o.cache_directory);
-        const tunnelling::ActionTable& table = cached.table;
-        unit.cache_hit = cached.hit;
-        std::vector<population::Response> grid;
-        if (!base->monochromatic()) grid = population::response_grid(lo, hi, o.responses_per_decade, table, context);
-        for (std::size_t r = 0; r < rows.size(); ++r) try {
-            if (o.before_row) o.before_row(point, k, r);
-            if (base->monochromatic()) {
-              const population::Response resp = population::response_at(rows[r].first, table, context);
-              if (resp.lightcone_per_beta > 0) {
-                unit.beta_max[r] = s.exclusion.max_decays / resp.lightcone_per_beta;
-                unit.f_max[r] = *unit.beta_max[r] * resp.f_per_beta;
-              }
-              if (central) unit.scan.push_back(resp);
-            } else {
-              const double per_f = population::lightcone_per_amplitude(*row_spectra[r], grid);
-              if (per_f > 0) {
-                unit.f_max[r] = s.exclusion.max_decays / per_f;
-                unit.beta_max[r] = *unit.f_max[r] / population::f_pbh_per_beta(
-                                                        population::formation_of(
-                                                            rows[r].first, s.population.collapse_fraction, background),
-                                                        background);
-              }
-            }
-            // beta <= 1 by definition (an energy fraction): a bound at or above 1 means even a universe
-            // made of these holes decays fewer than max_decays times, so nothing is constrained.
-            if (unit.beta_max[r] && !(*unit.beta_max[r] < 1)) unit.beta_max[r] = unit.f_max[r] = std::nullopt;
-          } catch (const NumericalError& e) {
-            // Recorded with its reason; the other rows go on (issue 9).
-            unit.beta_max[r] = unit.f_max[r] = std::nullopt;
-            unit.row_failures.resize(rows.size());
-            unit.row_failures[r] = one_line(e.what());
-          }
-        if (central) {
-          if (o.before_row) o.before_row(point, k, rows.size());
-          // The scenario's own abundance, and Gamma_D / Gamma_H for the plot.
-          std::vector<population::Response> own = base->monochromatic()
-                                                      ? std::vector<population::Response>{population::response_at(
-                                                            base->characteristic_mass(), table, context)}
-                                                      : grid;
-          unit.counts = population::counts_for(*base, measure_of(s.population.abundance.measure),
-                                               s.population.abundance.value, own);
-          if (!base->monochromatic()) unit.scan = grid;
-          unit.table_summary = table.summary().message;
-          for (const double m : out.plot_masses) {
-            const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), mass_loss, s.tunnelling.prefactor);
-            unit.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
-          }
-        }
-      }
-    } catch (const NumericalError& e) {
-      // The whole unit failed (its B(M) table, or the scenario's own counts): recorded, and the
-      // other units go on (issue 9).
-      unit = UnitResult{};
-      unit.beta_max.assign(rows.size(), std::nullopt);
-      unit.f_max.assign(rows.size(), std::nullopt);
-      unit.failure = one_line(e.what());
-    }
-    return to_text(unit);
-  };
-
-  // Units finished by an earlier run of this job come from its checkpoint; the rest are computed.
-  const std::size_t n_units = points.size() * n_presc;
+  // Items 0..T-1 are the B(M) tables, T.. the chunks of formation masses (job_units.hpp). Items
+  // finished by an earlier run of this job come from its checkpoint; the rest are computed.
+  const std::size_t n_tables = plan.tables(), per_table = plan.chunks_per_table(), n_items = n_tables * (1 + per_table);
   const ThreadExecutor local(o.threads);
   const Executor& executor = o.executor ? *o.executor : local;
   std::optional<Checkpoint> checkpoint;
   if (o.checkpoint && executor.assembles()) checkpoint.emplace(*o.checkpoint);
-  std::vector<UnitResult> units(n_units);
+  std::vector<std::string> texts(n_items);
   std::vector<std::size_t> pending;
-  for (std::size_t i = 0; i < n_units; ++i) {
+  for (std::size_t i = 0; i < n_items; ++i) {
     if (checkpoint)
       if (const auto text = checkpoint->load(i)) {
-        try {
-          units[i] = unit_from_text(*text, fmt::format("checkpoint unit {}", i));
+        try {  // a damaged record is computed again
+          if (i < n_tables)
+            (void)table_from_text(*text, fmt::format("checkpoint item {}", i));
+          else
+            (void)unit_from_text(*text, fmt::format("checkpoint item {}", i));
+          texts[i] = *text;
           ++out.units_resumed;
           continue;
-        } catch (const InputError&) {  // damaged: compute it again
+        } catch (const InputError&) {
         }
       }
     pending.push_back(i);
   }
   pending = executor.agree(pending);
+  const auto split = std::partition_point(pending.begin(), pending.end(), [&](std::size_t i) { return i < n_tables; });
+  const std::vector<std::size_t> pending_tables(pending.begin(), split), pending_chunks(split, pending.end());
   Progress progress("ember run", static_cast<long>(pending.size()), o.quiet || !executor.assembles());
   long done = 0;
-  executor.run(pending, compute, [&](std::size_t i, const std::string& text) {
-    units[i] = unit_from_text(text, fmt::format("unit {}", i));
-    if (units[i].cache_hit) ++(*units[i].cache_hit ? out.tables_from_cache : out.tables_built);
+  const auto finished = [&](std::size_t i, const std::string& text) {
+    texts[i] = text;
     if (checkpoint) checkpoint->save(i, text);
-    progress.advance(++done, name_of(s.tunnelling.prescriptions[i % n_presc]));
-  });
+    const std::size_t t = i < n_tables ? i : (i - n_tables) / per_table;
+    progress.advance(++done, name_of(s.tunnelling.prescriptions[t % n_presc]));
+  };
+  executor.run(
+      pending_tables, [&](std::size_t t) { return detail::table_work(plan, t); }, finished);
+  // Every process needs every table for the chunks (MPI: rank 0 sends them).
+  std::vector<std::string> table_texts(texts.begin(), texts.begin() + static_cast<std::ptrdiff_t>(n_tables));
+  table_texts = executor.share(std::move(table_texts));
+  std::vector<TableResult> records(n_tables);
+  detail::Tables tables(n_tables);
+  for (std::size_t t = 0; t < n_tables; ++t) {
+    records[t] = table_from_text(table_texts[t], fmt::format("table {}", t));
+    if (records[t].state == TableResult::State::table) tables[t] = tunnelling::ActionTable::from_text(records[t].table);
+  }
+  executor.run(
+      pending_chunks, [&](std::size_t i) { return detail::chunk_work(plan, tables, i - n_tables); }, finished);
   progress.finish();
   out.assembled = executor.assembles();
   if (!out.assembled) return out;
+
+  std::vector<UnitResult> units(n_tables);
+  for (std::size_t t = 0; t < n_tables; ++t) {
+    std::vector<UnitResult> chunks;
+    for (std::size_t c = 0; c < per_table; ++c) {
+      const std::size_t i = n_tables + t * per_table + c;
+      chunks.push_back(unit_from_text(texts[i], fmt::format("item {}", i)));
+    }
+    units[t] = detail::assemble_unit(plan, t, records[t], tables[t], chunks);
+  }
+  // Tables this run computed (not those resumed from the checkpoint): built, or read from the cache.
+  for (const std::size_t t : pending_tables)
+    if (records[t].cache_hit) ++(*records[t].cache_hit ? out.tables_from_cache : out.tables_built);
 
   // Assemble, in order.
   std::vector<std::vector<std::vector<std::optional<double>>>> band_values(
       n_presc, std::vector<std::vector<std::optional<double>>>(rows.size()));
   for (std::size_t point = 0; point < points.size(); ++point) {
-    const PointModel& model = models[point];
+    const detail::PointModel& model = models[point];
     BandPoint bp{points[point], model.stability ? model.stability->verdict : higgs::Verdict::metastable, false,
                  model.stability ? model.stability->log10_expected_decays : std::nullopt};
     if (model.failure) {
@@ -430,9 +362,9 @@ namespace ember::scenario {
 std::string job_identity(const JobOptions& o) {
   return fmt::format(
       "ember {} numerics {} table_points {} table_check_stride {} responses_per_decade {} "
-      "decay_grid_points {} plot_points {}",
+      "decay_grid_points {} plot_points {} rows_per_chunk {} grid_per_chunk {}",
       version, embedded::numerics_fingerprint(), o.table_points, o.table_check_stride, o.responses_per_decade,
-      o.decay_grid_points, o.plot_points);
+      o.decay_grid_points, o.plot_points, o.rows_per_chunk, o.grid_per_chunk);
 }
 
 }  // namespace ember::scenario

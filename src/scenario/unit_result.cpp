@@ -1,5 +1,8 @@
 #include "ember/scenario/unit_result.hpp"
 
+#include <fmt/format.h>
+
+#include "ember/core/errors.hpp"
 #include "ember/core/record.hpp"
 
 namespace ember::scenario {
@@ -97,6 +100,39 @@ UnitResult unit_from_text(const std::string& text, const std::string& what) {
   const long long f = in.whole();
   for (long long i = 0; i < f; ++i) u.row_failures.push_back(in.text_line("row"));
   return u;
+}
+
+std::string to_text(const TableResult& t) {
+  RecordWriter w;
+  const char* state = t.state == TableResult::State::table    ? "table"
+                      : t.state == TableResult::State::failed ? "failed"
+                                                              : "none";
+  w.word("ember-table").whole(1).word(state).word(!t.cache_hit ? "-" : *t.cache_hit ? "1" : "0").end_line();
+  w.text_line("failure", t.failure);
+  return w.str() + t.table;  // the table's own text, to the end
+}
+
+TableResult table_from_text(const std::string& text, const std::string& what) {
+  const std::size_t first = text.find('\n'), second = first == std::string::npos ? first : text.find('\n', first + 1);
+  if (second == std::string::npos) throw InputError(what + ": a table record needs two header lines");
+  RecordReader in(text.substr(0, second + 1), what);
+  TableResult t;
+  in.expect("ember-table");
+  in.expect("1");
+  const std::string state = in.word();
+  if (state == "table")
+    t.state = TableResult::State::table;
+  else if (state == "failed")
+    t.state = TableResult::State::failed;
+  else if (state == "none")
+    t.state = TableResult::State::no_decay;
+  else
+    throw InputError(fmt::format("{}: table state \"{}\"; expected table, failed or none", what, state));
+  const std::string cache = in.word();
+  if (cache != "-") t.cache_hit = cache == "1";
+  t.failure = in.text_line("failure");
+  t.table = text.substr(second + 1);
+  return t;
 }
 
 }  // namespace ember::scenario

@@ -39,7 +39,9 @@ struct ResponseContext {
 
 Response response_at(double mass, const tunnelling::ActionTable& table, const ResponseContext& c);
 
-// Responses on a log grid covering [low, high] with `per_decade` points per decade.
+// The log grid covering [low, high] with `per_decade` points per decade (just low when high <= low).
+std::vector<double> response_masses(double low, double high, int per_decade);
+// Responses on that grid.
 std::vector<Response> response_grid(double low, double high, int per_decade, const tunnelling::ActionTable& table,
                                     const ResponseContext& c);
 

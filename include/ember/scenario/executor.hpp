@@ -21,6 +21,9 @@ class Executor {
   virtual void run(const std::vector<std::size_t>& pending, const UnitWork& work, const UnitDone& done) const = 0;
   // The assembling process's list, shared with every process (all must agree on the work).
   virtual std::vector<std::size_t> agree(const std::vector<std::size_t>& pending) const { return pending; }
+  // Gives every process the assembling process's texts (MPI: a broadcast from rank 0); called by
+  // every process at the same point.
+  virtual std::vector<std::string> share(std::vector<std::string> texts) const { return texts; }
   // Whether this process assembles the results and writes the outputs (MPI: rank 0 only).
   virtual bool assembles() const { return true; }
 };

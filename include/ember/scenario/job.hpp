@@ -27,8 +27,12 @@ struct JobOptions {
   int responses_per_decade = 10;  // formation masses per decade for extended spectra
   int decay_grid_points = 500;    // ln M grid for decay times and crossovers (DecayOptions)
   int plot_points = 120;          // seed masses for the Gamma_D/Gamma_H plot data
-  int threads = 1;                // worker threads; the results do not depend on it
-  bool quiet = true;              // no progress bar on stderr
+  // Work is shared out per B(M) table, then in chunks of this many scan rows (monochromatic) or
+  // response-grid masses (extended spectra); the results do not depend on either.
+  int rows_per_chunk = 8;
+  int grid_per_chunk = 12;
+  int threads = 1;    // worker threads; the results do not depend on it
+  bool quiet = true;  // no progress bar on stderr
   // B(M) tables are kept here between runs (tunnelling/action_cache.hpp); none: always rebuilt.
   std::optional<std::filesystem::path> cache_directory;
   // Finished units are checkpointed here, and a rerun of the same job resumes from them.

@@ -29,4 +29,16 @@ std::string to_text(const UnitResult& unit);
 // Throws InputError naming `what` (a file, or a rank) when the text is malformed.
 UnitResult unit_from_text(const std::string& text, const std::string& what);
 
+// The first stage of a unit: its B(M) table, shared by every chunk of formation masses. `table` is
+// ActionTable::to_text() (exact); empty when there is no table.
+struct TableResult {
+  enum class State { table, no_decay, failed } state = State::no_decay;
+  std::optional<bool> cache_hit;
+  std::string failure;  // why, when failed
+  std::string table;
+};
+
+std::string to_text(const TableResult& table);
+TableResult table_from_text(const std::string& text, const std::string& what);
+
 }  // namespace ember::scenario

@@ -1,0 +1,218 @@
+#include "job_units.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "ember/core/errors.hpp"
+#include "ember/tunnelling/action_cache.hpp"
+#include "ember/tunnelling/rate.hpp"
+
+namespace ember::scenario::detail {
+
+using tunnelling::Prescription;
+
+std::string one_line(std::string text) {
+  for (char& c : text)
+    if (c == '\n' || c == '\r') c = ' ';
+  return text;
+}
+
+std::size_t JobPlan::chunks_per_table() const {
+  const std::size_t n = monochromatic() ? rows.size() : grid.size();
+  const std::size_t per = static_cast<std::size_t>(monochromatic() ? options->rows_per_chunk : options->grid_per_chunk);
+  return std::max<std::size_t>(1, (n + per - 1) / per);
+}
+
+std::pair<std::size_t, std::size_t> JobPlan::chunk_span(std::size_t chunk) const {
+  const std::size_t n = monochromatic() ? rows.size() : grid.size();
+  const std::size_t per = static_cast<std::size_t>(monochromatic() ? options->rows_per_chunk : options->grid_per_chunk);
+  return {std::min(n, chunk * per), std::min(n, (chunk + 1) * per)};
+}
+
+std::string table_work(const JobPlan& plan, std::size_t t) {
+  const Scenario& s = *plan.scenario;
+  const PointModel& model = plan.models[t / plan.prescriptions()];
+  const Prescription p = s.tunnelling.prescriptions[t % plan.prescriptions()];
+  TableResult r;
+  if (model.failure) {
+    r.state = TableResult::State::failed;
+    r.failure = *model.failure;
+    return to_text(r);
+  }
+  if (model.no_decay && p != Prescription::thin_wall) return to_text(r);  // no_decay
+  try {
+    tunnelling::TunnellingSetup setup;
+    setup.potential = model.potential.get();
+    setup.standard_model = model.sm;
+    if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
+      setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
+    setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
+    setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
+    const tunnelling::CachedTable cached =
+        tunnelling::cached_action_table(p, setup, plan.table_options, plan.options->cache_directory);
+    r.state = TableResult::State::table;
+    r.cache_hit = cached.hit;
+    r.table = cached.table.to_text();
+  } catch (const NumericalError& e) {
+    // Recorded, and the other units go on (issue 9).
+    r.state = TableResult::State::failed;
+    r.failure = one_line(e.what());
+  }
+  return to_text(r);
+}
+
+namespace {
+
+// beta <= 1 by definition (an energy fraction): a bound at or above 1 means even a universe made
+// of these holes decays fewer than max_decays times, so nothing is constrained.
+void drop_unphysical(std::optional<double>& beta, std::optional<double>& f) {
+  if (beta && !(*beta < 1)) beta = f = std::nullopt;
+}
+
+void monochromatic_rows(const JobPlan& plan, std::size_t t, const tunnelling::ActionTable& table, std::size_t begin,
+                        std::size_t end, UnitResult& u) {
+  const std::size_t point = t / plan.prescriptions(), k = t % plan.prescriptions();
+  const bool central = plan.points[point].central;
+  u.beta_max.assign(end - begin, std::nullopt);
+  u.f_max.assign(end - begin, std::nullopt);
+  for (std::size_t r = begin; r < end; ++r) try {
+      if (plan.options->before_row) plan.options->before_row(point, k, r);
+      const population::Response resp = population::response_at(plan.rows[r].first, table, plan.context);
+      if (resp.lightcone_per_beta > 0) {
+        u.beta_max[r - begin] = plan.scenario->exclusion.max_decays / resp.lightcone_per_beta;
+        u.f_max[r - begin] = *u.beta_max[r - begin] * resp.f_per_beta;
+      }
+      drop_unphysical(u.beta_max[r - begin], u.f_max[r - begin]);
+      if (central) u.scan.push_back(resp);
+    } catch (const NumericalError& e) {
+      // Recorded with its reason; the other rows go on (issue 9).
+      u.beta_max[r - begin] = u.f_max[r - begin] = std::nullopt;
+      u.row_failures.resize(end - begin);
+      u.row_failures[r - begin] = one_line(e.what());
+    }
+}
+
+UnitResult failed_unit(std::size_t rows, const std::string& why, std::optional<bool> cache_hit) {
+  UnitResult u;
+  u.beta_max.assign(rows, std::nullopt);
+  u.f_max.assign(rows, std::nullopt);
+  u.failure = why;
+  u.cache_hit = cache_hit;
+  return u;
+}
+
+}  // namespace
+
+std::string chunk_work(const JobPlan& plan, const Tables& tables, std::size_t j) {
+  const std::size_t t = j / plan.chunks_per_table();
+  const auto [begin, end] = plan.chunk_span(j % plan.chunks_per_table());
+  UnitResult u;
+  if (!tables[t]) return to_text(u);  // no table: nothing to compute here
+  if (plan.monochromatic()) {
+    monochromatic_rows(plan, t, *tables[t], begin, end, u);
+  } else {
+    try {
+      for (std::size_t i = begin; i < end; ++i)
+        u.scan.push_back(population::response_at(plan.grid[i], *tables[t], plan.context));
+    } catch (const NumericalError& e) {
+      u.scan.clear();
+      u.failure = one_line(e.what());  // the whole unit fails: every row integrates over the grid
+    }
+  }
+  return to_text(u);
+}
+
+namespace {
+
+// Extended spectra: every row integrates over the whole response grid.
+void extended_rows(const JobPlan& plan, std::size_t t, const std::vector<population::Response>& grid, UnitResult& u) {
+  const Scenario& s = *plan.scenario;
+  const std::size_t point = t / plan.prescriptions(), k = t % plan.prescriptions();
+  for (std::size_t r = 0; r < plan.rows.size(); ++r) try {
+      if (plan.options->before_row) plan.options->before_row(point, k, r);
+      const double per_f = population::lightcone_per_amplitude(*plan.row_spectra[r], grid);
+      if (per_f > 0) {
+        u.f_max[r] = s.exclusion.max_decays / per_f;
+        const population::Formation f =
+            population::formation_of(plan.rows[r].first, s.population.collapse_fraction, *plan.background);
+        u.beta_max[r] = *u.f_max[r] / population::f_pbh_per_beta(f, *plan.background);
+      }
+      drop_unphysical(u.beta_max[r], u.f_max[r]);
+    } catch (const NumericalError& e) {
+      u.beta_max[r] = u.f_max[r] = std::nullopt;
+      u.row_failures.resize(plan.rows.size());
+      u.row_failures[r] = one_line(e.what());
+    }
+}
+
+population::AbundanceMeasure measure_of(AbundanceMeasure m) {
+  switch (m) {
+    case AbundanceMeasure::beta: return population::AbundanceMeasure::beta;
+    case AbundanceMeasure::f_pbh: return population::AbundanceMeasure::f_pbh;
+    case AbundanceMeasure::lightcone_count: return population::AbundanceMeasure::lightcone_count;
+  }
+  return population::AbundanceMeasure::beta;
+}
+
+// The central point's own abundance, and Gamma_D / Gamma_H for the plot.
+void central_extras(const JobPlan& plan, std::size_t t, const tunnelling::ActionTable& table,
+                    const std::vector<population::Response>& grid, UnitResult& u) {
+  const Scenario& s = *plan.scenario;
+  if (plan.options->before_row)
+    plan.options->before_row(t / plan.prescriptions(), t % plan.prescriptions(), plan.rows.size());
+  const std::vector<population::Response> own = plan.monochromatic()
+                                                    ? std::vector<population::Response>{population::response_at(
+                                                          plan.base->characteristic_mass(), table, plan.context)}
+                                                    : grid;
+  u.counts =
+      population::counts_for(*plan.base, measure_of(s.population.abundance.measure), s.population.abundance.value, own);
+  if (!plan.monochromatic()) u.scan = grid;
+  u.table_summary = table.summary().message;
+  for (const double m : plan.plot_masses) {
+    const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), *plan.mass_loss, s.tunnelling.prefactor);
+    u.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
+  }
+}
+
+}  // namespace
+
+UnitResult assemble_unit(const JobPlan& plan, std::size_t t, const TableResult& record,
+                         const std::optional<tunnelling::ActionTable>& table, const std::vector<UnitResult>& chunks) {
+  const std::size_t n = plan.rows.size();
+  if (record.state == TableResult::State::failed) return failed_unit(n, record.failure, record.cache_hit);
+  UnitResult u;
+  u.beta_max.assign(n, std::nullopt);
+  u.f_max.assign(n, std::nullopt);
+  u.cache_hit = record.cache_hit;
+  if (record.state == TableResult::State::no_decay || !table) return u;
+  try {
+    std::vector<population::Response> grid;
+    for (std::size_t c = 0; c < chunks.size(); ++c) {
+      const UnitResult& ch = chunks[c];
+      if (!ch.failure.empty()) return failed_unit(n, ch.failure, record.cache_hit);
+      const std::size_t begin = plan.chunk_span(c).first;
+      if (plan.monochromatic()) {
+        for (std::size_t i = 0; i < ch.beta_max.size(); ++i) {
+          u.beta_max[begin + i] = ch.beta_max[i];
+          u.f_max[begin + i] = ch.f_max[i];
+        }
+        for (std::size_t i = 0; i < ch.row_failures.size(); ++i)
+          if (!ch.row_failures[i].empty()) {
+            u.row_failures.resize(n);
+            u.row_failures[begin + i] = ch.row_failures[i];
+          }
+        u.scan.insert(u.scan.end(), ch.scan.begin(), ch.scan.end());
+      } else {
+        grid.insert(grid.end(), ch.scan.begin(), ch.scan.end());
+      }
+    }
+    if (!plan.monochromatic()) extended_rows(plan, t, grid, u);
+    if (plan.points[t / plan.prescriptions()].central) central_extras(plan, t, *table, grid, u);
+  } catch (const NumericalError& e) {
+    // The whole unit failed (the scenario's own counts): recorded, and the others go on (issue 9).
+    return failed_unit(n, one_line(e.what()), record.cache_hit);
+  }
+  return u;
+}
+
+}  // namespace ember::scenario::detail
