@@ -6,6 +6,7 @@
 #include <sstream>
 
 #include "command.hpp"
+#include "ember/core/progress.hpp"
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
@@ -26,7 +27,7 @@ struct BounceOptions {
   std::string model = "standard_model", output;
   higgs::Inputs inputs = higgs::default_inputs();
   double lambda6 = 0, lambda8 = 0;
-  bool coleman_weinberg = false, json = false;
+  bool coleman_weinberg = false, json = false, quiet = false;
   std::string scale, coefficients, potential_table, tension, energy_gap;
   std::string prescriptions, prefactor = "root_action", floor = "1e3 Mpl";
   double hot_bubble_volume = 1;
@@ -191,6 +192,7 @@ int scan(const BounceOptions& o) {
   csv += "\n";
   // --json: the same rows as one object; B is null where no bubble forms.
   nlohmann::ordered_json rows = nlohmann::ordered_json::array();
+  Progress progress("ember bounce --scan", *n, o.quiet);
   for (long i = 0; i < *n; ++i) {
     const double m = from * std::pow(to / from, static_cast<double>(i) / static_cast<double>(*n - 1));
     csv += fmt::format("{:.8e},{:.8e}", m / u::planck_mass, m / u::gram);
@@ -206,7 +208,9 @@ int scan(const BounceOptions& o) {
     }
     rows.push_back(std::move(row));
     csv += "\n";
+    progress.advance(i + 1, fmt::format("{:.3g} M_Pl", m / u::planck_mass));
   }
+  progress.finish();
   require_finite_text(csv, o.output.empty() ? "the bounce scan" : o.output);
   if (!o.output.empty()) {
     write_file_atomically(o.output, csv);
@@ -259,6 +263,7 @@ Command add_bounce(CLI::App& parent) {
   app->add_option("--hot-bubble-volume", o->hot_bubble_volume,
                   "hot_bubble: nucleation volume in units of 4 pi r_h^3/3");
   app->add_flag("--json", o->json, "print one JSON object on stdout");
+  app->add_flag("--quiet", o->quiet, "--scan: no progress bar");
   return {app, [o] {
             if (!o->scan.empty()) return scan(*o);
             if (o->seed_mass.empty()) throw InputError("bounce: expected --seed-mass or --scan");
