@@ -59,3 +59,14 @@ TEST_CASE("remnant branches: weak back-reaction settles by fixed point without a
   bad.scan_points = 2;
   CHECK_THROWS_WITH_AS(bad.validate(), doctest::Contains("scan_points"), ember::InputError);
 }
+
+TEST_CASE("remnant branches: a solver failure inside a root search reaches the caller") {
+  // The failure sits around the lower branch (0.276), between scan points (0.215 and 0.316), so it
+  // is met inside GSL's root finder and must come out of it unchanged.
+  const MassShiftFn shift = [](double m) -> std::optional<double> {
+    if (m > 0.27 && m < 0.28) throw ember::NumericalError("test solver", "failed near the lower branch");
+    return 0.8 + 4 * (m - 0.5) * (m - 0.5) - m;
+  };
+  CHECK_THROWS_WITH_AS(find_remnants(1.0, shift), doctest::Contains("failed near the lower branch"),
+                       ember::NumericalError);
+}

@@ -299,8 +299,21 @@ TEST_CASE("thin walls: Coleman-De Luccia and the static wall around a hole") {
     const double r_over_r = 2 * units::newton_G * m * m_pl / (2 * w.sigma / w.epsilon);
     CHECK(std::abs(walls.front().action / probe - 1) < 3 * r_over_r);
   }
-  // No static wall around a hole larger than the bubble.
-  CHECK(seeded_thin_walls(w, 1e8 * m_pl, units::newton_G).empty());
+  // A hole larger than the bubble: the wall sits just outside the horizon, where the redshifted
+  // tension balances the energy gap. Probe limit (derived): E(dR) = 4 pi r_h^2 (sigma sqrt(dR/r_h)
+  // - eps dR) peaks at sqrt(dR/r_h) = sigma/(2 eps r_h), so E = pi r_h sigma^2/eps and
+  // B = E/T_H = 4 pi^2 r_h^2 sigma^2/eps, up to terms of order dR/r_h.
+  for (double m : {1e8, 1e9}) {
+    const auto walls = seeded_thin_walls(w, m * m_pl, units::newton_G);
+    REQUIRE_FALSE(walls.empty());
+    const double r_h = 2 * units::newton_G * m * m_pl;
+    CAPTURE(m);
+    CHECK(walls.front().radius > r_h);
+    CHECK(walls.front().radius < r_h * (1 + 1e-3));
+    // Measured: the difference is 2 dR/r_h (4.7e-4, then 4.7e-6).
+    const double d_r = walls.front().radius / r_h - 1;
+    CHECK(std::abs(walls.front().action / (4 * pi * pi * r_h * r_h * w.sigma * w.sigma / w.epsilon) - 1) < 3 * d_r);
+  }
 }
 
 TEST_CASE("the prescriptions side by side for the Standard Model") {

@@ -6,10 +6,10 @@
 #include <sstream>
 
 #include "command.hpp"
-#include "ember/core/progress.hpp"
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
+#include "ember/core/progress.hpp"
 #include "ember/core/text.hpp"
 #include "ember/tunnelling/action_table.hpp"
 #include "ember/tunnelling/rate.hpp"

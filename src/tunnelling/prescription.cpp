@@ -127,13 +127,17 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
   o.newton_G = s.newton_G;
   std::map<double, StaticSolution> solved;
   std::optional<NumericalError> unresolved, absent;
+  bool bracket_open = false;  // some solve ended with its bracket unclosed (at_resolution_limit)
   const MassShiftFn shift = [&](double m) -> std::optional<double> {
     try {
       auto it = solved.find(m);
       if (it == solved.end()) it = solved.emplace(m, solve_static(*s.potential, m, o)).first;
       const StaticSolution& sol = it->second;
       // A bracket that did not close is not a solution to root-find on.
-      if (sol.at_resolution_limit) return std::nullopt;
+      if (sol.at_resolution_limit) {
+        bracket_open = true;
+        return std::nullopt;
+      }
       return sol.mass_shift.value;
     } catch (const NumericalError& e) {
       if (!is_no_solution(e)) throw;
@@ -143,14 +147,15 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
   };
   const RemnantSearch search = find_remnants(seed, shift);
   if (search.roots.empty()) {
-    const std::string why = unresolved ? unresolved->what()
-                            : absent   ? absent->what()
-                                       : "no remnant M_- with M_- + DeltaM(M_-) = M_+ (static bubbles exist, but "
-                                         "none fits this seed)";
+    const std::string why = unresolved     ? unresolved->what()
+                            : bracket_open ? "a static solve ended with its bracket unclosed (resolution limit)"
+                            : absent       ? absent->what()
+                                           : "no remnant M_- with M_- + DeltaM(M_-) = M_+ (static bubbles exist, but "
+                                             "none fits this seed)";
     ActionPoint f = fallback_point(s, seed, why);
-    f.flags.resolution_limit = unresolved.has_value();
+    f.flags.resolution_limit = unresolved.has_value() || bracket_open;
     // A wall too thin to resolve says nothing about the critical seed mass.
-    f.flags.remnant_free_regime = !unresolved && static_solution_heavier(s, o, seed);
+    f.flags.remnant_free_regime = !f.flags.resolution_limit && static_solution_heavier(s, o, seed);
     if (f.flags.remnant_free_regime)
       f.note += "; below the critical seed mass (a static solution exists at 10x the seed)";
     return f;
@@ -176,8 +181,8 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
   a.phi_horizon = sol.phi_horizon;
   a.flags.several_branches = search.roots.size() > 1;
   a.flags.near_branch_point = best->near_branch_point;
-  a.flags.resolution_limit = sol.at_resolution_limit;
-  a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
+  // Roots come only from closed brackets, so the resolution limit is never set here.
+  a.flags.unconverged = sol.summary.status != BounceStatus::converged;
   a.note = sol.summary.message;
   if (search.roots.size() > 1) a.note += fmt::format("; lowest B of {} remnant branches", search.roots.size());
   return a;

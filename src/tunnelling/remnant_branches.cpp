@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <exception>
 #include <memory>
 
 #include "ember/core/errors.hpp"
@@ -33,8 +34,6 @@ void RemnantSearchOptions::validate() const {
 }
 
 namespace {
-
-struct NoBubble {};  // thrown through GSL from inside an interval where no static bubble exists
 
 // Works in u = ln M_- with the mismatch g(u) = (M_- + DeltaM(M_-) - M_+) / M_+.
 class Search {
@@ -137,15 +136,29 @@ class Search {
   const RemnantSearchOptions& o_;
   RemnantSearch& out_;
 
+  // Nothing is thrown through GSL's C frames: a missing bubble returns NaN (which GSL refuses
+  // with a status code) and an error is kept and rethrown once GSL has returned.
   struct Call {
     Search* self;
     double sign;
+    bool missing = false;
+    std::exception_ptr error;
   };
   static double call(double u, void* p) {
     auto* c = static_cast<Call*>(p);
-    const std::optional<double> g = c->self->mismatch(u);
-    if (!g) throw NoBubble{};
-    return c->sign * *g;
+    try {
+      const std::optional<double> g = c->self->mismatch(u);
+      if (g) return c->sign * *g;
+      c->missing = true;
+    } catch (...) {
+      c->error = std::current_exception();
+    }
+    return NAN;
+  }
+  // Rethrows a kept error; otherwise whether a point had no bubble. Called before the status.
+  static bool spoilt(const Call& c) {
+    if (c.error) std::rethrow_exception(c.error);
+    return c.missing;
   }
 
   // Brent's method on g over [lo, hi] (a sign change), to hi - lo < root_tolerance in ln M_-.
@@ -153,18 +166,15 @@ class Search {
     use_gsl_status_codes();
     std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(
         gsl_root_fsolver_alloc(gsl_root_fsolver_brent), gsl_root_fsolver_free);
-    Call c{this, 1};
+    Call c{this, 1, false, nullptr};
     gsl_function f{call, &c};
-    try {
-      if (gsl_root_fsolver_set(s.get(), &f, lo, hi) != GSL_SUCCESS) return std::nullopt;
-      for (int i = 0; i < 200; ++i) {
-        gsl_root_fsolver_iterate(s.get());
-        if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()),
-                                   o_.root_tolerance, 0) == GSL_SUCCESS)
-          break;
-      }
-    } catch (const NoBubble&) {
+    if (const int status = gsl_root_fsolver_set(s.get(), &f, lo, hi); spoilt(c) || status != GSL_SUCCESS)
       return std::nullopt;
+    for (int i = 0; i < 200; ++i) {
+      if (const int status = gsl_root_fsolver_iterate(s.get()); spoilt(c) || status != GSL_SUCCESS) return std::nullopt;
+      if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()),
+                                 o_.root_tolerance, 0) == GSL_SUCCESS)
+        break;
     }
     return gsl_root_fsolver_root(s.get());
   }
@@ -174,20 +184,18 @@ class Search {
     use_gsl_status_codes();
     std::unique_ptr<gsl_min_fminimizer, decltype(&gsl_min_fminimizer_free)> m(
         gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent), gsl_min_fminimizer_free);
-    Call c{this, sign};
+    Call c{this, sign, false, nullptr};
     gsl_function f{call, &c};
-    try {
-      if (gsl_min_fminimizer_set(m.get(), &f, mid, lo, hi) != GSL_SUCCESS) return std::nullopt;
-      for (int i = 0; i < 100; ++i) {
-        gsl_min_fminimizer_iterate(m.get());
-        // Stop once g dips below zero: the crossing is all the caller needs.
-        if (gsl_min_fminimizer_f_minimum(m.get()) < 0) break;
-        if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(m.get()), gsl_min_fminimizer_x_upper(m.get()), 1e-8, 0) ==
-            GSL_SUCCESS)
-          break;
-      }
-    } catch (const NoBubble&) {
+    if (const int status = gsl_min_fminimizer_set(m.get(), &f, mid, lo, hi); spoilt(c) || status != GSL_SUCCESS)
       return std::nullopt;
+    for (int i = 0; i < 100; ++i) {
+      if (const int status = gsl_min_fminimizer_iterate(m.get()); spoilt(c) || status != GSL_SUCCESS)
+        return std::nullopt;
+      // Stop once g dips below zero: the crossing is all the caller needs.
+      if (gsl_min_fminimizer_f_minimum(m.get()) < 0) break;
+      if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(m.get()), gsl_min_fminimizer_x_upper(m.get()), 1e-8, 0) ==
+          GSL_SUCCESS)
+        break;
     }
     return gsl_min_fminimizer_x_minimum(m.get());
   }

@@ -60,7 +60,7 @@ Launch Shooter::launch(const Aim& aim) {
   if (aim.kind == Aim::Kind::log_gap && std::exp(aim.param) < min_->linear_gap)
     return launch_near_minimum(std::exp(aim.param));
   const auto [x, s] = start(phi_horizon(aim));
-  return {x, s, 0.0, 0.0};
+  return {x, s, 0.0, s[2]};  // K(x0) = 4 pi r_h^3 V x0 = DeltaM(x0) to first order, as below
 }
 
 // A thin wall's interior sits exponentially close to phi_t, closer than phi itself can express.

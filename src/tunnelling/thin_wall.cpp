@@ -39,7 +39,7 @@ double interior_horizon(double m_minus, double inv_l2, double G) {
   for (int i = 0; i < 200; ++i) {
     const double step = (r + r * r * r * inv_l2 - target) / (1 + 3 * r * r * inv_l2);
     r -= step;
-    if (std::abs(step) <= 1e-16 * r) break;
+    if (std::abs(step) <= 4e-16 * r) break;  // a few ulps: the iteration stalls below that
   }
   return r;
 }
@@ -91,8 +91,13 @@ std::vector<SeededWall> seeded_thin_walls(const ThinWall& w, double seed, double
           b = m;
         }
       }
-      const double r = std::exp(0.5 * (a + b)), d = delta(r), m_minus = seed - d;
-      if (d >= 0 && m_minus >= 0) out.push_back(wall_at(r, seed, d, inv_l2, G));
+      // Kept when the interior has a horizon (M_- >= 0) and the remnant's horizon mass lies below
+      // the seed (B > 0); Delta itself may be negative, the interior vacuum energy making up.
+      const double r = std::exp(0.5 * (a + b)), d = delta(r);
+      if (seed - d >= 0) {
+        const SeededWall wall = wall_at(r, seed, d, inv_l2, G);
+        if (wall.action > 0 && wall.remnant_mass >= 0) out.push_back(wall);
+      }
     }
     prev_u = u;
     prev = cur;
