@@ -17,15 +17,19 @@ std::string one_line(std::string text) {
   return text;
 }
 
+// What is chunked (scan rows or grid masses): how many, and how many per chunk.
+std::pair<std::size_t, std::size_t> JobPlan::chunking() const {
+  if (monochromatic()) return {rows.size(), static_cast<std::size_t>(options->rows_per_chunk)};
+  return {grid.size(), static_cast<std::size_t>(options->grid_per_chunk)};
+}
+
 std::size_t JobPlan::chunks_per_table() const {
-  const std::size_t n = monochromatic() ? rows.size() : grid.size();
-  const std::size_t per = static_cast<std::size_t>(monochromatic() ? options->rows_per_chunk : options->grid_per_chunk);
+  const auto [n, per] = chunking();
   return std::max<std::size_t>(1, (n + per - 1) / per);
 }
 
 std::pair<std::size_t, std::size_t> JobPlan::chunk_span(std::size_t chunk) const {
-  const std::size_t n = monochromatic() ? rows.size() : grid.size();
-  const std::size_t per = static_cast<std::size_t>(monochromatic() ? options->rows_per_chunk : options->grid_per_chunk);
+  const auto [n, per] = chunking();
   return {std::min(n, chunk * per), std::min(n, (chunk + 1) * per)};
 }
 

@@ -50,6 +50,9 @@ struct JobPlan {
   bool monochromatic() const { return base->monochromatic(); }
   std::size_t chunks_per_table() const;
   std::pair<std::size_t, std::size_t> chunk_span(std::size_t chunk) const;  // [begin, end) of rows or grid
+
+ private:
+  std::pair<std::size_t, std::size_t> chunking() const;
 };
 
 using Tables = std::vector<std::optional<tunnelling::ActionTable>>;

@@ -56,9 +56,12 @@ double Shooter::phi_horizon(const Aim& aim) const {
   return min_->phi - std::exp(aim.param);
 }
 
+bool Shooter::linearised(const Aim& aim) const {
+  return aim.kind == Aim::Kind::log_gap && std::exp(aim.param) < min_->linear_gap;
+}
+
 Launch Shooter::launch(const Aim& aim) {
-  if (aim.kind == Aim::Kind::log_gap && std::exp(aim.param) < min_->linear_gap)
-    return launch_near_minimum(std::exp(aim.param));
+  if (linearised(aim)) return launch_near_minimum(std::exp(aim.param));
   const auto [x, s] = start(phi_horizon(aim));
   return {x, s, 0.0, s[2]};  // K(x0) = 4 pi r_h^3 V x0 = DeltaM(x0) to first order, as below
 }
@@ -164,9 +167,7 @@ double Shooter::direct_action(const Aim& aim, double dm_total) {
   }
   const double d_inf = s[3], bulk = std::exp(-d_inf) * s[4];
   const double m_minus = r_h_ / (2 * G_), m_plus = m_minus + dm_total, beta = 8 * pi * G_ * m_plus;
-  const double v_h = aim.kind == Aim::Kind::log_gap && std::exp(aim.param) < min_->linear_gap
-                         ? min_->value
-                         : pot_.value(phi_horizon(aim));
+  const double v_h = linearised(aim) ? min_->value : pot_.value(phi_horizon(aim));
   const double b = 8 * pi * G_ * r_h_ * r_h_ * v_h;
   // deficit / 2 pi = 1 - (1 + DeltaM/M_-)(1 - b) e^{delta_h}, formed without cancellation.
   const double deficit = -2 * pi * std::expm1(std::log1p(dm_total / m_minus) + std::log1p(-b) - d_inf);

@@ -66,6 +66,7 @@ class Shooter {
   double f_of(double x, double dm) const;
   void rhs(const State& s, State& ds, double x);
   std::pair<double, State> start(double phi_h) const;
+  bool linearised(const Aim& aim) const;  // launched on the equations linearised about phi_t
   Launch launch(const Aim& aim);
   Launch launch_near_minimum(double delta);
 };
