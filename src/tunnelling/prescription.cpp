@@ -102,10 +102,6 @@ ActionPoint fallback_point(const TunnellingSetup& s, double seed, const std::str
   return a;
 }
 
-bool is_no_solution(const NumericalError& e) {
-  return no_static_solution(e);
-}
-
 // Whether a static solution exists at a seed 10 times heavier: then this seed lies below the
 // critical seed mass, where remnant-free instantons take over (rather than above the range where
 // the bubble no longer fits, as for very heavy seeds).
@@ -114,7 +110,7 @@ bool static_solution_heavier(const TunnellingSetup& s, const StaticOptions& o, d
     (void)solve_static(*s.potential, 10 * seed, o);
     return true;
   } catch (const NumericalError& e) {
-    if (!is_no_solution(e)) throw;
+    if (!no_static_solution(e)) throw;
     return false;
   }
 }
@@ -140,7 +136,7 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
       }
       return sol.mass_shift.value;
     } catch (const NumericalError& e) {
-      if (!is_no_solution(e)) throw;
+      if (!no_static_solution(e)) throw;
       (wall_beyond_resolution(e) ? unresolved : absent) = e;
       return std::nullopt;
     }
@@ -202,7 +198,7 @@ ActionPoint probe_field(const TunnellingSetup& s, double seed) {
     a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
     a.note = sol.summary.message;
   } catch (const NumericalError& e) {
-    if (!is_no_solution(e)) throw;
+    if (!no_static_solution(e)) throw;
     ActionPoint f = fallback_point(s, seed, e.what());
     f.flags.resolution_limit = wall_beyond_resolution(e);
     return f;
