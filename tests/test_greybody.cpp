@@ -1,14 +1,17 @@
 // Greybody factors: limits from the literature, internal consistency, and the shipped table.
 #include <doctest/doctest.h>
+#include <unistd.h>
 
 #include <cmath>
 #include <filesystem>
+#include <fstream>
 
 #include "ember/core/errors.hpp"
 #include "ember/core/input_file.hpp"
 #include "ember/greybody/emission.hpp"
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
+#include "ember/greybody/table_cache.hpp"
 #include "support.hpp"
 
 using namespace ember::greybody;
@@ -224,4 +227,51 @@ TEST_CASE("malformed tables are rejected with the file and line") {
                        doctest::Contains("again"), ember::InputError);
   CHECK_THROWS_WITH_AS(parse_table(damaged("# x_max: 5", "# x_max: -5"), "t.tsv"),
                        doctest::Contains("0 < x_min < x_max"), ember::InputError);
+}
+
+TEST_CASE("cached greybody tables: a hit is bit for bit, a changed option misses, damage is rebuilt") {
+  const auto dir = std::filesystem::temp_directory_path() / ("ember-greybody-cache-" + std::to_string(::getpid()));
+  std::filesystem::remove_all(dir);
+  BuildOptions o;
+  o.points_per_mode = 12;  // a coarse grid keeps the test fast; the cache does not care
+  o.quiet = true;
+  const CachedGreybody first = cached_table(o, dir);
+  const CachedGreybody second = cached_table(o, dir);
+  CHECK_FALSE(first.hit);
+  CHECK(second.hit);
+  CHECK(format_table(first.table, {}) == format_table(second.table, {}));
+  for (const double x : {3e-4, 0.07, 0.31, 2.2})  // identical numbers, not merely close
+    CHECK(first.table.weighted_sum(1, x).value == second.table.weighted_sum(1, x).value);
+  // Every option that changes the table changes the key; `quiet` does not.
+  const std::string key = table_key(o);
+  BuildOptions changed = o;
+  changed.points_per_mode = 13;
+  CHECK(table_key(changed) != key);
+  changed = o;
+  changed.x_min = 2e-3;
+  CHECK(table_key(changed) != key);
+  changed = o;
+  changed.solver.ode_relative = 1e-10;
+  CHECK(table_key(changed) != key);
+  changed = o;
+  changed.power_fraction_cut = 1e-5;
+  CHECK(table_key(changed) != key);
+  changed = o;
+  changed.quiet = false;
+  CHECK(table_key(changed) == key);
+  {  // one digit of one transmission: the checksum no longer holds, so the entry is rebuilt
+    std::ifstream in(dir / key);
+    std::string text((std::istreambuf_iterator<char>(in)), {});
+    const auto at = text.find("\n0\t0\t");
+    REQUIRE(at != std::string::npos);
+    text[text.find('e', at + 7) - 1] ^= 1;
+    std::ofstream(dir / key) << text;
+  }
+  const CachedGreybody third = cached_table(o, dir);
+  CHECK_FALSE(third.hit);
+  CHECK(format_table(third.table, {}) == format_table(first.table, {}));
+  CHECK(cached_table(o, dir).hit);
+  // No directory: built, nothing stored.
+  CHECK_FALSE(cached_table(o, std::nullopt).hit);
+  std::filesystem::remove_all(dir);
 }

@@ -427,6 +427,24 @@ TEST_CASE("strong back-reaction: the branch scan, and the regime below the criti
   CHECK(close(light.action.value, 4 * units::pi * units::newton_G * std::pow(0.1 * reference, 2), 1e-12));
 }
 
+TEST_CASE("B(M) tables are bit for bit the same on 1 or 3 threads (issue 8)") {
+  const TunnellingSetup s = sm_setup();
+  ActionTableOptions o;
+  o.points = 10;
+  o.midpoint_stride = 2;
+  for (const Prescription p : {Prescription::probe_field, Prescription::entropy_drop}) {
+    CAPTURE(name_of(p));
+    ActionTableOptions threaded = o;
+    threaded.threads = 3;
+    const ActionTable one(p, s, o), three(p, s, threaded);
+    CHECK(one.to_text() == three.to_text());  // every node, flag and the measured error, in hex floats
+    CHECK(one.summary().checks == three.summary().checks);
+  }
+  ActionTableOptions none = o;
+  none.threads = 0;
+  CHECK_THROWS_WITH_AS(none.validate(), doctest::Contains("threads"), ember::InputError);
+}
+
 TEST_CASE("cached B(M) tables: a hit is bit for bit, a change misses, damage is rebuilt") {
   const auto dir = std::filesystem::temp_directory_path() / fmt::format("ember-cache-test-{}", ::getpid());
   std::filesystem::remove_all(dir);

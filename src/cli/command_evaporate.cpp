@@ -27,7 +27,7 @@ struct EvaporateOptions {
   std::string qcd_scale = "0.3 GeV", argument = "energy", cutoff = "1e3 Mpl";
   std::optional<std::string> species;  // set (maybe empty) when --species is given
   std::string particles, table, trajectory;
-  bool json = false;
+  bool json = false, quiet = false;
 };
 
 struct Setup {
@@ -45,6 +45,7 @@ Setup setup(const EvaporateOptions& o) {
   if (o.argument != "energy" && o.argument != "momentum")
     throw InputError(fmt::format("--greybody-argument {}: unknown; expected energy or momentum", o.argument));
   options.argument = o.argument == "momentum" ? GreybodyArgument::momentum : GreybodyArgument::energy;
+  options.quiet = o.quiet;
   TrajectoryOptions t;
   t.cutoff_mass = quantity_option("--cutoff", o.cutoff, u::mass);
   t.validate();
@@ -232,6 +233,7 @@ Command add_evaporate(CLI::App& parent) {
   app->add_option("--table", o->table, "greybody table (default data/greybody.tsv)");
   app->add_option("--trajectory", o->trajectory, "--mass: write M(t) to this CSV file");
   app->add_flag("--json", o->json, "print one JSON object on stdout");
+  app->add_flag("--quiet", o->quiet, "no progress bar while the alpha(M) table is built");
   return {app, [o] {
             if (!o->lifetime.empty()) return by_lifetime(*o);
             if (o->mass.empty()) throw InputError("evaporate: expected --mass or --lifetime");

@@ -45,6 +45,8 @@ int run(const RunOptions& o, const ExecutorFactory& factory) {
     std::cerr << fmt::format("ember: B(M) tables: {} from the cache{}, {} built\n", results.tables_from_cache,
                              job.cache_directory ? " in " + job.cache_directory->string() : std::string(" (off)"),
                              results.tables_built);
+  if (!o.quiet && results.greybody_from_cache)
+    std::cerr << fmt::format("ember: greybody table: {}\n", *results.greybody_from_cache ? "from the cache" : "built");
   if (!o.quiet && results.units_resumed > 0)
     std::cerr << fmt::format("ember: resumed {} finished units (tables and chunks) from {}\n", results.units_resumed,
                              checkpoint.string());
@@ -90,7 +92,7 @@ Command add_run(CLI::App& parent, ExecutorFactory factory) {
   app->add_option("--cache-dir", o->cache_dir,
                   "keep B(M) tables here between runs (default: $EMBER_CACHE_DIR, else $XDG_CACHE_HOME/ember, else "
                   "~/.cache/ember)");
-  app->add_flag("--no-cache", o->no_cache, "build every B(M) table afresh and store none");
+  app->add_flag("--no-cache", o->no_cache, "build every table (greybody, alpha(M), B(M)) afresh and store none");
   app->add_option(
       "--checkpoint", o->checkpoint,
       "checkpoint finished work (tables, chunks of masses) here as the run goes; rerunning the same command resumes "

@@ -13,6 +13,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/core/progress.hpp"
 #include "ember/core/record.hpp"
 #include "ember/units/constants.hpp"
 
@@ -228,6 +229,8 @@ MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const
     if (in.whole() != n) throw InputError(fmt::format("alpha(M) nodes: not {} nodes; expected this build's grid", n));
     for (auto& x : ln_a) x = in.real();
   }
+  // Counted in direct sums: n nodes, then n - 1 midpoint checks.
+  Progress progress("alpha(M) table", known_error ? 0 : 2L * n - 1, options_.quiet || known_error);
   for (int i = 0; i < n; ++i) {
     const auto I = static_cast<std::size_t>(i);
     u[I] = t->ln_m_lo + (t->ln_m_hi - t->ln_m_lo) * i / (n - 1);
@@ -240,6 +243,7 @@ MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const
       throw NumericalError("mass-loss table",
                            fmt::format("alpha = {} at M = {:.4e} g", a, std::exp(u[I]) / units::gram));
     ln_a[I] = std::log(a);
+    progress.advance(i + 1);
   }
   t->ln_alpha = make_spline(u, ln_a);
   t->ln_alpha_nodes = ln_a;
@@ -254,7 +258,9 @@ MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const
     const double mid = std::exp(0.5 * (u[static_cast<std::size_t>(i)] + u[static_cast<std::size_t>(i + 1)]));
     const double direct = alpha_direct(mid);
     summary_.max_midpoint_error = std::max(summary_.max_midpoint_error, std::abs(alpha(mid) - direct) / direct);
+    progress.advance(n + i + 1);
   }
+  progress.finish();
   summary_.nodes = n;
   summary_.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   relative_error_ = greybody.header().interpolation_error + 2 * summary_.max_midpoint_error;

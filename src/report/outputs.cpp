@@ -187,6 +187,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
   j["cautions"] = cautions(l.scenario);
   j["potential"] = r.potential;
   j["spectrum"] = r.spectrum;
+  j["greybody_table"] = r.greybody;
   if (r.stability) {
     const auto& st = *r.stability;
     j["higgs"] = {{"verdict", higgs::name_of(st.verdict)},
@@ -251,9 +252,10 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
 }
 
 std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
-  std::string t = fmt::format("Ember run: {}\n  scenario {} (hash {})\n  population: {}\n  potential: {}\n",
-                              l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, scenario_hash(l),
-                              r.spectrum, r.potential);
+  std::string t =
+      fmt::format("Ember run: {}\n  scenario {} (hash {})\n  population: {}\n  potential: {}\n  greybody table: {}\n",
+                  l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, scenario_hash(l), r.spectrum,
+                  r.potential, r.greybody);
   if (r.stability)
     t += fmt::format("  Higgs vacuum: {}{}; unseeded decays expected in the past light cone: log10 N = {}\n",
                      higgs::name_of(r.stability->verdict),

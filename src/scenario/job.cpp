@@ -12,6 +12,7 @@
 #include "ember/core/progress.hpp"
 #include "ember/evaporation/mass_loss_cache.hpp"
 #include "ember/greybody/table.hpp"
+#include "ember/greybody/table_cache.hpp"
 #include "ember/scenario/checkpoint.hpp"
 #include "ember/scenario/executor.hpp"
 #include "ember/scenario/unit_result.hpp"
@@ -100,6 +101,32 @@ detail::PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm
   return m;
 }
 
+bool quiet_here(const JobOptions& o) {
+  return o.quiet || (o.executor && !o.executor->assembles());
+}
+
+evaporation::MassLossOptions with_progress(evaporation::MassLossOptions m, const JobOptions& o) {
+  m.quiet = quiet_here(o);
+  return m;
+}
+
+// The shipped table, or one this binary computes (and caches) for the scenario.
+greybody::Table greybody_table(const EvaporationChoices& e, const JobOptions& o, JobResults& out) {
+  if (!e.computed_greybody) {
+    greybody::Table t = greybody::load_default_table();
+    out.greybody = fmt::format("{} as shipped (stated interpolation error {:.1e})",
+                               greybody::default_table_path().filename().string(), t.header().interpolation_error);
+    return t;
+  }
+  greybody::BuildOptions b = *e.computed_greybody;
+  b.quiet = quiet_here(o);
+  greybody::CachedGreybody c = greybody::cached_table(b, o.cache_directory);
+  out.greybody = fmt::format("computed by this binary, {} points per mode (stated interpolation error {:.1e})",
+                             b.points_per_mode, c.table.header().interpolation_error);
+  out.greybody_from_cache = c.hit;
+  return std::move(c.table);
+}
+
 void check_applicable(const Scenario& s) {
   const bool sm = std::holds_alternative<StandardModelForm>(s.standard_model.potential);
   for (const Prescription p : s.tunnelling.prescriptions) {
@@ -122,8 +149,8 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   const cosmology::Background background(s.cosmology, s.dof_table ? cosmology::DegreesOfFreedom::load(*s.dof_table)
                                                                   : cosmology::DegreesOfFreedom::load_default());
   const evaporation::MassLoss mass_loss =
-      evaporation::cached_mass_loss(greybody::load_default_table(), evaporation::load_default_particles(),
-                                    s.evaporation.mass_loss, o.cache_directory)
+      evaporation::cached_mass_loss(greybody_table(s.evaporation, o, out), evaporation::load_default_particles(),
+                                    with_progress(s.evaporation.mass_loss, o), o.cache_directory)
           .mass_loss;
   out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);
   detail::JobPlan plan;
@@ -232,6 +259,9 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   pending = executor.agree(pending);
   const auto split = std::partition_point(pending.begin(), pending.end(), [&](std::size_t i) { return i < n_tables; });
   const std::vector<std::size_t> pending_tables(pending.begin(), split), pending_chunks(split, pending.end());
+  // Fewer tables than threads (a single-point run): the spare threads solve each table's nodes.
+  plan.table_options.threads =
+      std::max(1, o.threads / static_cast<int>(std::max<std::size_t>(1, pending_tables.size())));
   Progress progress("ember run", static_cast<long>(pending.size()), o.quiet || !executor.assembles());
   long done = 0;
   const auto finished = [&](std::size_t i, const std::string& text) {

@@ -79,6 +79,10 @@ EvaporationChoices read_evaporation(const YAML::Node& n) {
   e.mass_loss.argument = n["greybody_argument"].Scalar() == "momentum" ? evaporation::GreybodyArgument::momentum
                                                                        : evaporation::GreybodyArgument::energy;
   e.trajectory.cutoff_mass = mass(n["cutoff_mass"]);
+  if (n["greybody_table"].Scalar() == "computed") {
+    e.computed_greybody.emplace();
+    e.computed_greybody->points_per_mode = whole(n["greybody_points"]);
+  }
   return e;
 }
 

@@ -130,6 +130,14 @@ Key evaporation() {
                 units::energy, "GeV", "0.3 GeV", between(0.1, 1)),
        option("greybody_argument", "massive species: evaluate greybody factors at the energy or the momentum",
               {"energy", "momentum"}, "energy"),
+       option("greybody_table",
+              "shipped = data/greybody.tsv; computed = solved by this binary from the wave equations (about a "
+              "second at 161 points) and kept in the cache",
+              {"shipped", "computed"}, "shipped"),
+       integer("greybody_points",
+               "computed: grid points per greybody mode, log-uniform in x = GM omega/c^3 over "
+               "[1e-3, 5]",
+               "161", between(8, 10000)),
        quantity("cutoff_mass", "mass where numerical integration stops and the analytic end takes over", units::mass,
                 "Mpl", "1e3 Mpl", at_least(1))});
 }

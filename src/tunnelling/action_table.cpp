@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/parallel.hpp"
 #include "ember/core/record.hpp"
 
 namespace ember::tunnelling {
@@ -19,6 +20,7 @@ void ActionTableOptions::validate() const {
   if (!(stop_action > 0)) throw InputError("B(M) table options: stop_action must be > 0");
   if (!(max_seed > 0)) throw InputError("B(M) table options: max_seed must be > 0");
   if (midpoint_stride < 1) throw InputError("B(M) table options: midpoint_stride must be >= 1");
+  if (threads < 1) throw InputError("B(M) table options: threads must be >= 1");
 }
 
 // A run of nodes with increasing seed mass and finite B, splined in (ln M_+, ln B).
@@ -83,14 +85,19 @@ ActionTable::ActionTable(Prescription p, const TunnellingSetup& s, const ActionT
     }
   }
   const double lo = std::log(floor_), hi = std::log(top_);
-  for (int i = 0; i < o.points; ++i) nodes_.push_back(solve_node(p, s, std::exp(lo + (hi - lo) * i / (o.points - 1))));
+  const auto grid = [&](double i) { return std::exp(lo + (hi - lo) * i / (o.points - 1)); };
+  nodes_.resize(static_cast<std::size_t>(o.points));
+  parallel_for(nodes_.size(), o.threads,
+               [&](std::size_t i) { nodes_[i] = solve_node(p, s, grid(static_cast<double>(i))); });
 
   build_branches();
 
-  // Interpolation error at midpoints, as an absolute error in B.
-  for (int i = 0; i + 1 < o.points; i += o.midpoint_stride) {
-    const double mid = std::exp(lo + (hi - lo) * (i + 0.5) / (o.points - 1));
-    const ActionPoint direct = solve_node(p, s, mid);
+  // Interpolation error at midpoints, as an absolute error in B (solved first, compared in order).
+  std::vector<ActionPoint> checks(static_cast<std::size_t>((o.points - 2) / o.midpoint_stride + 1));
+  parallel_for(checks.size(), o.threads, [&](std::size_t k) {
+    checks[k] = solve_node(p, s, grid(static_cast<double>(k) * o.midpoint_stride + 0.5));
+  });
+  for (const ActionPoint& direct : checks) {
     if (direct.flags.no_decay) continue;
     const ActionPoint looked = interpolate(direct.seed_mass);
     if (looked.flags.no_decay) continue;

@@ -9,5 +9,7 @@ std::string_view standard_model_yaml();  // data/standard_model.yaml
 std::string_view cosmology_yaml();       // data/cosmology.yaml
 // 16 hex digits over the sources and data a cached B(M) table depends on (see CMakeLists.txt).
 std::string_view numerics_fingerprint();
+// 16 hex digits over the sources a greybody table is built from (core, units, greybody).
+std::string_view greybody_fingerprint();
 
 }  // namespace ember::embedded

@@ -35,6 +35,8 @@ struct MassLossOptions {
   GreybodyArgument argument = GreybodyArgument::energy;
   // alpha is tabulated at this many nodes per decade of mass.
   int nodes_per_decade = tolerance::mass_nodes_per_decade;
+  // No progress bar while the nodes are computed (core/progress.hpp). Not part of the result.
+  bool quiet = true;
 
   void validate() const;  // throws InputError naming the field and the rule
 };

@@ -33,7 +33,8 @@ struct JobOptions {
   int grid_per_chunk = 12;
   int threads = 1;    // worker threads; the results do not depend on it
   bool quiet = true;  // no progress bar on stderr
-  // B(M) tables are kept here between runs (tunnelling/action_cache.hpp); none: always rebuilt.
+  // Tables are kept here between runs (greybody/table_cache.hpp, evaporation/mass_loss_cache.hpp,
+  // tunnelling/action_cache.hpp); none: always rebuilt.
   std::optional<std::filesystem::path> cache_directory;
   // Finished units are checkpointed here, and a rerun of the same job resumes from them.
   std::optional<CheckpointOptions> checkpoint;
@@ -98,6 +99,8 @@ struct JobResults {
   std::string potential;                            // description
   std::optional<higgs::StabilityReport> stability;  // Standard Model potentials
   std::string spectrum;                             // description
+  std::string greybody;                             // which greybody table, and its stated error
+  std::optional<bool> greybody_from_cache;          // a computed table: read from the cache or built
   bool no_constraint = false;                       // stable potential or no bubble: no seeded decay at all
   std::string no_constraint_reason;
   std::vector<PrescriptionOutcome> outcomes;

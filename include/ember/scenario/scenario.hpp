@@ -12,6 +12,7 @@
 
 #include "ember/cosmology/background.hpp"
 #include "ember/evaporation/trajectory.hpp"
+#include "ember/greybody/table.hpp"
 #include "ember/higgs/potential.hpp"
 #include "ember/tunnelling/rate.hpp"
 
@@ -73,6 +74,8 @@ struct StandardModelInputs {
 struct EvaporationChoices {
   evaporation::MassLossOptions mass_loss;     // qcd_scale, greybody argument
   evaporation::TrajectoryOptions trajectory;  // cutoff_mass
+  // The greybody table: the shipped file, or (when set) computed with these options and cached.
+  std::optional<greybody::BuildOptions> computed_greybody;
 };
 
 using tunnelling::Prefactor;

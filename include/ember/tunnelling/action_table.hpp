@@ -24,6 +24,9 @@ struct ActionTableOptions {
   double stop_action = 1e4;                     // the table ends where B passes this
   double max_seed = 1e20 * units::planck_mass;  // ... or here (GeV), whichever comes first
   int midpoint_stride = 3;                      // check every this many interval midpoints against direct solves
+  // Nodes and checks are solved on up to this many threads; the table does not depend on it
+  // (each solve is a pure function of its mass), so it is not part of the cache key.
+  int threads = 1;
 
   void validate() const;
 };
