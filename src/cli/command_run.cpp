@@ -90,7 +90,8 @@ Command add_run(CLI::App& parent, ExecutorFactory factory) {
       ->check(CLI::Range(1, 1024));
   app->add_flag("--quiet", o->quiet, "no progress bar or cache note");
   app->add_option("--cache-dir", o->cache_dir,
-                  "keep B(M) tables here between runs (default: $EMBER_CACHE_DIR, else $XDG_CACHE_HOME/ember, else "
+                  "keep tables (greybody, alpha(M), B(M)) here between runs (default: $EMBER_CACHE_DIR, else "
+                  "$XDG_CACHE_HOME/ember, else "
                   "~/.cache/ember)");
   app->add_flag("--no-cache", o->no_cache, "build every table (greybody, alpha(M), B(M)) afresh and store none");
   app->add_option(
