@@ -6,7 +6,11 @@
 
 namespace ember::testing {
 
-inline const std::filesystem::path source_dir = EMBER_SOURCE_DIR;
+// The source tree (tests read its data/, configs/ and tests/data/); its path is compiled into
+// support.cpp only. An inline variable, so namespace-scope paths built from it in a suite are
+// initialised after it.
+std::filesystem::path source_root();
+inline const std::filesystem::path source_dir = source_root();
 
 // |a - b| <= rel |b|
 inline bool close(double a, double b, double rel = 1e-14) {

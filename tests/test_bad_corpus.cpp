@@ -8,12 +8,13 @@
 #include <sstream>
 
 #include "ember/scenario/load.hpp"
+#include "support.hpp"
 
 namespace fs = std::filesystem;
 using namespace ember::scenario;
 
 namespace {
-const fs::path bad_dir = fs::path(EMBER_SOURCE_DIR) / "tests/data/bad";
+const fs::path bad_dir = ember::testing::source_dir / "tests/data/bad";
 
 struct Expectation {
   std::string file;

@@ -193,7 +193,8 @@ TEST_CASE("options and particle files are validated by name") {
       {"no_species.yaml", ":1:1: species"},
   };
   for (const auto& [file, fragment] : cases) {
-    CAPTURE(file);
+    const std::string name = file;  // clang 14 cannot capture a structured binding in a lambda
+    CAPTURE(name);
     CHECK_THROWS_WITH_AS(load_particles(dir / file), doctest::Contains(fragment), ember::InputError);
   }
 }

@@ -203,7 +203,8 @@ TEST_CASE("malformed tables are rejected with the file and line") {
       {"missing_key.tsv", "interpolation_error"},    {"transmission_above_one.tsv", ":28: transmission 1.6"},
   };
   for (const auto& [file, fragment] : cases) {
-    CAPTURE(file);
+    const std::string name = file;  // clang 14 cannot capture a structured binding in a lambda
+    CAPTURE(name);
     CHECK_THROWS_WITH_AS(load_table(dir / file), doctest::Contains(fragment), ember::InputError);
   }
   CHECK_THROWS_WITH_AS(load_table(dir / "no-such.tsv"), doctest::Contains("no such file"), ember::InputError);

@@ -19,7 +19,7 @@
 namespace ember::cosmology {
 
 namespace {
-constexpr double pi = units::pi;
+using units::pi;
 // The background is tabulated from this temperature (GeV) down to today, in steps of ln a.
 constexpr double t_top = 1e19;
 constexpr double ln_a_step = 0.01;

@@ -20,7 +20,7 @@
 namespace ember::evaporation {
 
 namespace {
-constexpr double pi = units::pi;
+using units::pi;
 constexpr int spin_order[] = {0, 1, 2, 4};
 
 int kernel_index(int twice_spin) {

@@ -10,12 +10,13 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/units/constants.hpp"
 
 namespace ember::greybody {
 
 namespace {
 
-constexpr double pi = 3.141592653589793238462643383279502884;
+using units::pi;
 // e^{-8 pi x} < 1e-30 beyond this x: the thermal tail is negligible there.
 constexpr double x_upper = 2.75;
 constexpr double quadrature_relative = 1e-10;

@@ -2,10 +2,12 @@
 
 #include <cmath>
 
+#include "ember/units/constants.hpp"
+
 namespace ember::higgs {
 
 namespace {
-constexpr double pi = 3.141592653589793238462643383279502884;
+using units::pi;
 constexpr double loop = 1.0 / (16 * pi * pi);
 constexpr double zeta3 = 1.2020569031595942854;
 }  // namespace

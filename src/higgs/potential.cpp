@@ -11,12 +11,13 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/hash.hpp"
 #include "ember/core/text.hpp"
+#include "ember/core/uniform_cubic.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::higgs {
 
 namespace {
-constexpr double pi = units::pi;
+using units::pi;
 constexpr double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass;
 using SplinePtr = std::shared_ptr<gsl_spline>;
 SplinePtr make_spline(const std::vector<double>& x, const std::vector<double>& y) {
@@ -32,8 +33,7 @@ double Potential::quartic(double h) const {
 
 // --- Standard Model ----------------------------------------------------------------------------
 struct StandardModelPotential::Table {
-  double t0, t1;
-  SplinePtr lambda_eff;  // against t = ln h
+  UniformCubic lambda_eff;  // against t = ln h
 };
 
 double StandardModelPotential::lambda_eff_direct(double h) const {
@@ -50,21 +50,23 @@ double StandardModelPotential::lambda_eff_direct(double h) const {
   return std::exp(4 * g) * bracket;
 }
 
+namespace {
+// lambda_eff's nodes are this far apart in ln h (its stated error is measured below).
+constexpr double lambda_eff_spacing = 0.05;
+}  // namespace
+
 StandardModelPotential::StandardModelPotential(std::shared_ptr<const Running> running, const StandardModelOptions& o)
     : running_(std::move(running)), options_(o) {
   if (!std::isfinite(o.lambda6) || !std::isfinite(o.lambda8))
     throw InputError("Standard Model potential: lambda6 and lambda8 must be finite numbers");
-  auto table = std::make_shared<Table>();
-  table->t0 = std::log(running_->mu_min());
-  table->t1 = std::log(running_->mu_max());
-  const int n = static_cast<int>(std::ceil((table->t1 - table->t0) / 0.05)) + 1;
+  const double t0 = std::log(running_->mu_min()), t1 = std::log(running_->mu_max());
+  const int n = static_cast<int>(std::ceil((t1 - t0) / lambda_eff_spacing)) + 1;
   std::vector<double> t(static_cast<std::size_t>(n)), y(static_cast<std::size_t>(n));
   for (int i = 0; i < n; ++i) {
-    t[static_cast<std::size_t>(i)] = table->t0 + (table->t1 - table->t0) * i / (n - 1);
+    t[static_cast<std::size_t>(i)] = t0 + (t1 - t0) * i / (n - 1);
     y[static_cast<std::size_t>(i)] = lambda_eff_direct(std::exp(t[static_cast<std::size_t>(i)]));
   }
-  table->lambda_eff = make_spline(t, y);
-  table_ = table;
+  table_ = std::make_shared<const Table>(Table{UniformCubic(t0, t1, y)});
   for (int i = 0; i + 1 < n; ++i) {
     const double mid = 0.5 * (t[static_cast<std::size_t>(i)] + t[static_cast<std::size_t>(i + 1)]);
     interpolation_error_ =
@@ -73,9 +75,20 @@ StandardModelPotential::StandardModelPotential(std::shared_ptr<const Running> ru
   interpolation_error_ += running_->summary().max_midpoint_error;
 }
 
+namespace {
+// lambda_eff and its t-derivatives at t = ln h: held constant outside the tabulated range, so
+// the derivatives vanish there.
+UniformCubic::Point lambda_eff_at(const UniformCubic& c, double t) {
+  const bool inside = t > c.x0() && t < c.x1();
+  UniformCubic::Point p = c.at(std::clamp(t, c.x0(), c.x1()));
+  if (!inside) p.first = p.second = 0;
+  return p;
+}
+}  // namespace
+
 double StandardModelPotential::lambda_eff(double h) const {
-  const double t = std::clamp(std::log(h), table_->t0, table_->t1);
-  return gsl_spline_eval(table_->lambda_eff.get(), t, nullptr);
+  const UniformCubic& c = table_->lambda_eff;
+  return c.value(std::clamp(std::log(h), c.x0(), c.x1()));
 }
 
 double StandardModelPotential::value(double h) const {
@@ -85,21 +98,22 @@ double StandardModelPotential::value(double h) const {
 }
 
 double StandardModelPotential::slope(double h) const {
-  const double t = std::log(h);
-  const bool inside = t > table_->t0 && t < table_->t1;
-  const double l = lambda_eff(h);
-  const double dl_dt = inside ? gsl_spline_eval_deriv(table_->lambda_eff.get(), t, nullptr) : 0.0;
-  const double h3 = h * h * h;
-  return h3 * l + h3 * dl_dt / 4 + options_.lambda6 * h3 * h * h / mbar2 +
-         options_.lambda8 * h3 * h3 * h / (mbar2 * mbar2);
+  return value_slope(h).slope;
+}
+
+ValueSlope StandardModelPotential::value_slope(double h) const {
+  const UniformCubic::Point p = lambda_eff_at(table_->lambda_eff, std::log(h));
+  const double h2 = h * h, h3 = h2 * h, h4 = h2 * h2;
+  const double value =
+      p.value * h4 / 4 + options_.lambda6 * h4 * h2 / (6 * mbar2) + options_.lambda8 * h4 * h4 / (8 * mbar2 * mbar2);
+  const double slope = h3 * p.value + h3 * p.first / 4 + options_.lambda6 * h3 * h2 / mbar2 +
+                       options_.lambda8 * h3 * h3 * h / (mbar2 * mbar2);
+  return {value, slope};
 }
 
 double StandardModelPotential::curvature(double h) const {
-  const double t = std::log(h);
-  const bool inside = t > table_->t0 && t < table_->t1;
-  const double l = lambda_eff(h);
-  const double d1 = inside ? gsl_spline_eval_deriv(table_->lambda_eff.get(), t, nullptr) : 0.0;
-  const double d2 = inside ? gsl_spline_eval_deriv2(table_->lambda_eff.get(), t, nullptr) : 0.0;
+  const UniformCubic::Point p = lambda_eff_at(table_->lambda_eff, std::log(h));
+  const double l = p.value, d1 = p.first, d2 = p.second;
   // d/dh [h^3 (l + l'/4)] with d/dh = (1/h) d/dt.
   const double h2 = h * h;
   return h2 * (3 * l + 3 * d1 / 4 + d1 + d2 / 4) + 5 * options_.lambda6 * h2 * h2 / mbar2 +

@@ -25,7 +25,7 @@ std::string name_of(Verdict v) {
 
 namespace {
 
-constexpr double pi = units::pi;
+using units::pi;
 constexpr double grid_step = 0.01;  // scan in ln mu before refining
 
 using Fn = std::function<double(double)>;

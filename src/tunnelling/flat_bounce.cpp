@@ -28,12 +28,12 @@ void FlatBounceOptions::validate() const {
 
 namespace {
 
-using State = std::array<double, 3>;  // phi, phi', int r^(d-1) phi'^2 dr
+using FlatState = std::array<double, 3>;  // phi, phi', int r^(d-1) phi'^2 dr
 
-enum class Shot { overshoot, undershoot };
+enum class FlatShot { overshoot, undershoot };
 
-struct ShotResult {
-  Shot kind;
+struct FlatShotResult {
+  FlatShot kind;
   double kinetic;  // int r^(d-1) phi'^2 up to the stop
   double stop_radius;
   double stop_field;
@@ -54,7 +54,7 @@ double dlog_g(int d, double z) {  // g'/g = I_{nu+1}/I_nu
   return gsl_sf_bessel_Inu_scaled(nu + 1, z) / gsl_sf_bessel_Inu_scaled(nu, z);
 }
 
-struct Shooter {
+struct FlatShooter {
   const higgs::Potential& pot;
   int d;
   double rel;
@@ -69,7 +69,7 @@ struct Shooter {
 
   // Starting radius and state for a shot. delta = e^s is kept apart from phi_true, which it may
   // be far too small to change in double precision.
-  std::pair<double, State> start(double shoot) {
+  std::pair<double, FlatState> start(double shoot) {
     const double phi0 = phi0_of(shoot);
     const double delta = phi_true ? std::exp(shoot) : 0.0;
     const double target = 1e-4 * scale;
@@ -91,33 +91,35 @@ struct Shooter {
     return {r0, {phi0 + a * r0 * r0, 2 * a * r0, 0.0}};
   }
 
-  ShotResult shoot(double shoot_variable) {
+  FlatShotResult shoot(double shoot_variable) {
     namespace odeint = boost::numeric::odeint;
     auto [r, s] = start(shoot_variable);
-    const auto rhs = [&](const State& x, State& dx, double rr) {
+    const auto rhs = [&](const FlatState& x, FlatState& dx, double rr) {
       ++evaluations;
       dx[0] = x[1];
       dx[1] = pot.slope(x[0]) - (d - 1) / rr * x[1];
       dx[2] = std::pow(rr, d - 1) * x[1] * x[1];
     };
     using Checker = odeint::default_error_checker<double, odeint::array_algebra, odeint::default_operations>;
-    odeint::controlled_runge_kutta<odeint::runge_kutta_fehlberg78<State>> stepper(Checker(rel * 1e-10 * scale, rel));
+    odeint::controlled_runge_kutta<odeint::runge_kutta_fehlberg78<FlatState>> stepper(
+        Checker(rel * 1e-10 * scale, rel));
     double h = r * 0.1;
     double wall = 0;
     for (long steps = 0; steps < 2000000; ++steps) {
-      const State before = s;
+      const FlatState before = s;
       const double r_before = r;
       if (stepper.try_step(rhs, s, r, h) == odeint::fail) continue;
       if (wall == 0 && s[0] <= barrier_top) wall = r;
       if (s[0] < 0) {  // crossed the false vacuum
         const double frac = before[0] / (before[0] - s[0]);
         const double rc = r_before + frac * (r - r_before);
-        return {Shot::overshoot, before[2] + frac * (s[2] - before[2]), rc, 0.0, wall};
+        return {FlatShot::overshoot, before[2] + frac * (s[2] - before[2]), rc, 0.0, wall};
       }
-      if (s[1] > 0) return {Shot::undershoot, s[2], r, s[0], wall};
-      if (!std::isfinite(s[0]) || !std::isfinite(s[1])) return {Shot::overshoot, before[2], r_before, before[0], wall};
+      if (s[1] > 0) return {FlatShot::undershoot, s[2], r, s[0], wall};
+      if (!std::isfinite(s[0]) || !std::isfinite(s[1]))
+        return {FlatShot::overshoot, before[2], r_before, before[0], wall};
     }
-    return {Shot::undershoot, s[2], r, s[0], wall};
+    return {FlatShot::undershoot, s[2], r, s[0], wall};
   }
 };
 
@@ -129,7 +131,7 @@ FlatBounce solve_once(const higgs::Potential& pot, const FlatBounceOptions& o) {
   FlatBounce out;
   out.landscape = analyse_landscape(pot, o.scan_from > 0 ? o.scan_from : pot.field_max() * 1e-40);
   const Landscape& L = out.landscape;
-  Shooter sh{pot, o.dimensions, o.relative_tolerance, L.true_minimum, 0.0, 0.0, L.barrier_top};
+  FlatShooter sh{pot, o.dimensions, o.relative_tolerance, L.true_minimum, 0.0, 0.0, L.barrier_top};
   sh.scale = L.true_minimum ? *L.true_minimum : L.escape;
   if (L.true_minimum) sh.mass_true = std::sqrt(std::max(0.0, pot.curvature(*L.true_minimum)));
 
@@ -139,7 +141,7 @@ FlatBounce solve_once(const higgs::Potential& pot, const FlatBounceOptions& o) {
   if (L.true_minimum) {
     s_under = std::log(*L.true_minimum - L.escape);  // phi0 at the escape point: undershoot
     s_over = std::log(*L.true_minimum) - 700;        // as close to the minimum as doubles allow
-    if (sh.shoot(s_over).kind != Shot::overshoot)
+    if (sh.shoot(s_over).kind != FlatShot::overshoot)
       throw NumericalError("flat bounce shooting",
                            fmt::format("no overshoot even from phi(0) = phi_true (1 - e^-700); true minimum at {:.6g}",
                                        *L.true_minimum));
@@ -147,7 +149,7 @@ FlatBounce solve_once(const higgs::Potential& pot, const FlatBounceOptions& o) {
     s_under = std::log(L.escape);
     s_over = s_under + 1.0;
     int tries = 0;
-    while (sh.shoot(s_over).kind != Shot::overshoot) {
+    while (sh.shoot(s_over).kind != FlatShot::overshoot) {
       s_over += 1.0;
       if (++tries > 100 || phi0_of(s_over) > pot.field_max())
         throw NumericalError(
@@ -155,20 +157,20 @@ FlatBounce solve_once(const higgs::Potential& pot, const FlatBounceOptions& o) {
             fmt::format("no overshoot up to phi(0) = {:.4g} GeV (escape point {:.4g} GeV)", phi0_of(s_over), L.escape));
     }
   }
-  ShotResult over{}, under{};
+  FlatShotResult over{}, under{};
   int n = 0;
   for (; n < 400 && std::abs(s_over - s_under) > o.shooting_tolerance * std::max(1.0, std::abs(s_over)); ++n) {
     const double mid = 0.5 * (s_over + s_under);
-    const ShotResult r = sh.shoot(mid);
-    (r.kind == Shot::overshoot ? s_over : s_under) = mid;
-    (r.kind == Shot::overshoot ? over : under) = r;
+    const FlatShotResult r = sh.shoot(mid);
+    (r.kind == FlatShot::overshoot ? s_over : s_under) = mid;
+    (r.kind == FlatShot::overshoot ? over : under) = r;
   }
   if (over.stop_radius == 0) over = sh.shoot(s_over);
   if (under.stop_radius == 0) under = sh.shoot(s_under);
 
   const int d = o.dimensions;
   const double omega = sphere_area(d) / d;
-  const auto action_of = [&](const ShotResult& u, const ShotResult& v) {
+  const auto action_of = [&](const FlatShotResult& u, const FlatShotResult& v) {
     double tail = 0;
     if (L.false_mass_squared <= 0 || std::sqrt(std::max(0.0, L.false_mass_squared)) * u.stop_radius < 3) {
       const double c = u.stop_field * std::pow(u.stop_radius, d - 2);

@@ -85,7 +85,7 @@ Flags& Flags::operator|=(const Flags& o) {
 
 namespace {
 
-constexpr double pi = units::pi;
+using units::pi;
 
 double horizon_volume(const TunnellingSetup& s, double mass) {
   const double r_h = 2 * s.newton_G * mass;
@@ -118,9 +118,8 @@ bool static_solution_heavier(const TunnellingSetup& s, const StaticOptions& o, d
 // Every remnant branch for the seed (remnant_branches.hpp), each from a static solve kept for
 // reuse; the lowest B wins. No branch: the fallback, flagged as the remnant-free regime when a
 // heavier seed has a static solution.
-ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
-  StaticOptions o;
-  o.newton_G = s.newton_G;
+ActionPoint entropy_drop(const TunnellingSetup& s, double seed, const ActionEffort& effort) {
+  const StaticOptions o = static_options(s, effort, true);
   std::map<double, StaticSolution> solved;
   std::optional<NumericalError> unresolved, absent;
   bool bracket_open = false;  // some solve ended with its bracket unclosed (at_resolution_limit)
@@ -184,10 +183,8 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed) {
   return a;
 }
 
-ActionPoint probe_field(const TunnellingSetup& s, double seed) {
-  StaticOptions o;
-  o.newton_G = s.newton_G;
-  o.back_reaction = false;
+ActionPoint probe_field(const TunnellingSetup& s, double seed, const ActionEffort& effort) {
+  const StaticOptions o = static_options(s, effort, false);
   ActionPoint a;
   a.seed_mass = a.remnant_mass = seed;
   try {
@@ -309,14 +306,23 @@ ActionPoint thin_wall(const TunnellingSetup& s, double seed) {
 
 }  // namespace
 
-ActionPoint action_at(Prescription p, const TunnellingSetup& s, double seed) {
+StaticOptions static_options(const TunnellingSetup& s, const ActionEffort& effort, bool back_reaction) {
+  StaticOptions o;
+  o.newton_G = s.newton_G;
+  o.back_reaction = back_reaction;
+  o.residual_check = effort.residual_check;
+  if (effort.rough) o.relative_tolerance = o.shooting_tolerance = rough_tolerance;
+  return o;
+}
+
+ActionPoint action_at(Prescription p, const TunnellingSetup& s, double seed, const ActionEffort& effort) {
   if (!s.potential) throw InputError("tunnelling: no potential given");
   if (!(seed > 0) || !std::isfinite(seed))
     throw InputError(fmt::format("tunnelling: seed mass {} GeV; expected a finite mass > 0", seed));
   ActionPoint a;
   switch (p) {
-    case Prescription::entropy_drop: a = entropy_drop(s, seed); break;
-    case Prescription::probe_field: a = probe_field(s, seed); break;
+    case Prescription::entropy_drop: a = entropy_drop(s, seed, effort); break;
+    case Prescription::probe_field: a = probe_field(s, seed, effort); break;
     case Prescription::hot_bubble: a = hot_bubble(s, seed); break;
     case Prescription::no_seed: a = no_seed(s, seed); break;
     case Prescription::thin_wall: a = thin_wall(s, seed); break;

@@ -64,6 +64,7 @@ class Shooter {
   long evaluations_ = 0;
 
   double f_of(double x, double dm) const;
+  double f_of(double x, double exp_x, double dm) const;
   void rhs(const State& s, State& ds, double x);
   std::pair<double, State> start(double phi_h) const;
   bool linearised(const Aim& aim) const;  // launched on the equations linearised about phi_t

@@ -14,13 +14,20 @@
 
 namespace ember::higgs {
 
+// V and dV/dh at one field, for the shooting codes' right-hand sides.
+struct ValueSlope {
+  double value = 0, slope = 0;
+};
+
 class Potential {
  public:
   virtual ~Potential() = default;
   virtual double value(double h) const = 0;
   virtual double slope(double h) const = 0;      // dV/dh
   virtual double curvature(double h) const = 0;  // d^2V/dh^2
-  virtual double field_max() const = 0;          // the largest field where V is defined
+  // Both at once; potentials that share work between the two override it (the same numbers).
+  virtual ValueSlope value_slope(double h) const { return {value(h), slope(h)}; }
+  virtual double field_max() const = 0;  // the largest field where V is defined
   virtual std::string description() const = 0;
   // Every parameter the potential depends on, exactly (hex floats, file fingerprints): equal
   // identities mean equal potentials. Used to key cached tables.
@@ -42,7 +49,8 @@ struct StandardModelOptions {
 // (RG-improved tree level; e.g. Buttazzo et al., JHEP 12 (2013) 089, sec. 6, from memory), and,
 // when asked for, CW = (1/16pi^2) sum_p n_p k_p^2 (ln k_p + 2 Gamma - C_p) with k_t = yt^2/2
 // (n = -12, C = 3/2), k_W = g2^2/4 (n = 6, C = 5/6), k_Z = (g2^2 + gY^2)/4 (n = 3, C = 5/6);
-// the Higgs and Goldstone terms are left out. lambda_eff is splined in ln h.
+// the Higgs and Goldstone terms are left out. lambda_eff is a natural cubic spline in t = ln h on
+// evenly spaced nodes (UniformCubic), so a lookup is one index computation, with no search.
 class StandardModelPotential final : public Potential {
  public:
   StandardModelPotential(std::shared_ptr<const Running> running, const StandardModelOptions& options = {});
@@ -51,6 +59,7 @@ class StandardModelPotential final : public Potential {
   double value(double h) const override;
   double slope(double h) const override;
   double curvature(double h) const override;
+  ValueSlope value_slope(double h) const override;
   double field_max() const override { return running_->mu_max(); }
   std::string description() const override;
   std::string identity() const override;

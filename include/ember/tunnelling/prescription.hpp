@@ -78,8 +78,24 @@ struct TunnellingSetup {
   double hot_bubble_volume = 1;  // in units of 4 pi r_h^3 / 3
 };
 
+// How much work a caller wants put into B; none of it moves B beyond its stated error.
+struct ActionEffort {
+  // Measure the static solutions' field-equation residual (StaticOptions::residual_check),
+  // reported in the note. B(M) tables skip it: their accuracy is measured against direct solves
+  // at interval midpoints instead.
+  bool residual_check = true;
+  // A quick estimate: the static solver's step and shooting tolerances loosened to
+  // rough_tolerance, enough to tell whether B passes a threshold (B(M) tables find their top
+  // this way). B's stated error follows.
+  bool rough = false;
+};
+inline constexpr double rough_tolerance = 1e-7;
+
+// The static solver's options for a setup and an effort (back-reacted or in the probe limit).
+StaticOptions static_options(const TunnellingSetup& setup, const ActionEffort& effort, bool back_reaction);
+
 // B and friends for one prescription at one seed mass (GeV). Throws InputError when the
 // prescription cannot apply (thin_wall without a wall), NumericalError when a solver fails.
-ActionPoint action_at(Prescription p, const TunnellingSetup& setup, double seed_mass);
+ActionPoint action_at(Prescription p, const TunnellingSetup& setup, double seed_mass, const ActionEffort& effort = {});
 
 }  // namespace ember::tunnelling

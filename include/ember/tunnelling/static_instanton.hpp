@@ -59,20 +59,23 @@ struct StaticOptions {
   // Also evaluate the Euclidean action directly (back-reaction only), as a check of the area
   // formula: see direct_action below.
   bool direct_action = false;
+  // Re-integrate the solution with dense output and measure the field equation's residual along
+  // it (StaticSolution::max_residual): a check, about a fifth of a solve, that never changes B.
+  bool residual_check = true;
 
   void validate() const;
 };
 
 struct StaticSolution {
-  double remnant_mass = 0;            // M_- (GeV); the background mass in the probe limit
-  double seed_mass = 0;               // M_+ = M_- + DeltaM; equal to M_- in the probe limit
-  Estimate mass_shift;                // DeltaM (GeV), or the field energy E in the probe limit
-  Estimate action;                    // B
-  double phi_horizon = 0;             // GeV
-  std::optional<double> horizon_gap;  // phi_t - phi_h (GeV), when shot from the true minimum
-  double bubble_radius = 0;           // where phi passes the barrier top (GeV^-1)
-  double max_residual = 0;            // largest relative residual of the field equation along the solution
-  bool at_resolution_limit = false;   // the bracket reached double precision before converging
+  double remnant_mass = 0;             // M_- (GeV); the background mass in the probe limit
+  double seed_mass = 0;                // M_+ = M_- + DeltaM; equal to M_- in the probe limit
+  Estimate mass_shift;                 // DeltaM (GeV), or the field energy E in the probe limit
+  Estimate action;                     // B
+  double phi_horizon = 0;              // GeV
+  std::optional<double> horizon_gap;   // phi_t - phi_h (GeV), when shot from the true minimum
+  double bubble_radius = 0;            // where phi passes the barrier top (GeV^-1)
+  std::optional<double> max_residual;  // largest relative residual of the field equation; none: not checked
+  bool at_resolution_limit = false;    // the bracket reached double precision before converging
   // The Euclidean action computed directly, relative to the Schwarzschild hole of mass M_+ at the
   // same temperature (derived; Gregory, Moss & Withers 2014 for the method): with the on-shell
   // bulk Lagrangian -V (from R = 8 pi G ((d phi)^2 + 4V)), beta = 8 pi G M_+, the asymptotic
