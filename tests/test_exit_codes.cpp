@@ -14,6 +14,7 @@ TEST_CASE("exceptions map to the documented exit codes (DEVELOPERS.md)") {
   CHECK(run_guarded([] { return 0; }) == ember::exit_ok);
   CHECK(run_guarded([]() -> int { throw ember::InputError("a.yaml:3: bad; expected good"); }) == 2);
   CHECK(run_guarded([]() -> int { throw ember::NumericalError("a solver", "did not converge: 1e-3 > 1e-8"); }) == 3);
+  CHECK(run_guarded([]() -> int { throw ember::OutputError("out/: cannot write the results: disk full"); }) == 4);
   CHECK(run_guarded([]() -> int { throw std::logic_error("a bug"); }) == 1);
   CHECK(run_guarded([]() -> int { throw std::bad_alloc(); }) == 1);
 }

@@ -1,7 +1,10 @@
 // Cosmology, formation, decay along trajectories, counts and constraint curves.
 #include <doctest/doctest.h>
+#include <unistd.h>
 
 #include <cmath>
+#include <filesystem>
+#include <iterator>
 
 #include "ember/core/errors.hpp"
 #include "ember/population/counts.hpp"
@@ -193,13 +196,16 @@ TEST_CASE("results do not depend on the thread count") {
   loaded.scenario.scan.band.lambda6.clear();
   // And the chunks of formation masses the work is shared out in (one row each, against the
   // default): a division of work only, so the same bits (derived).
-  scenario::JobOptions one, two, fine;
+  // With max_chunks = 1 the bound wins over rows_per_chunk: one chunk per table.
+  scenario::JobOptions one, two, fine, bounded;
   one.threads = 1;
   two.threads = 2;
   fine.threads = 2;
   fine.rows_per_chunk = 1;
+  bounded.rows_per_chunk = 1;
+  bounded.max_chunks = 1;
   const scenario::JobResults a = scenario::run_job(loaded.scenario, one);
-  for (const auto* options : {&two, &fine}) {
+  for (const auto* options : {&two, &fine, &bounded}) {
     const scenario::JobResults b = scenario::run_job(loaded.scenario, *options);
     REQUIRE(a.outcomes.size() == b.outcomes.size());
     for (std::size_t k = 0; k < a.outcomes.size(); ++k) {
@@ -216,6 +222,29 @@ TEST_CASE("results do not depend on the thread count") {
     }
   }
   CHECK(a.band.size() == 3);  // the central point and M_t at -2 and +2 sigma
+}
+
+TEST_CASE("checkpoint files stay bounded however fine the grid, and a rerun resumes from them") {
+  // 3000 scan rows at 8 per chunk would be 375 chunk files; the bound (max_chunks, 256) holds
+  // them to 256 beside the one table and the identity, and a rerun computes nothing.
+  const auto loaded = scenario::load_scenario_text(
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-20}\n"
+      "tunnelling: {prescriptions: [probe_field]}\nscan: {masses: {from: 1 g, to: 1e12 g, points: 3000}}\n",
+      "many_rows.yaml", ".");
+  const auto dir = std::filesystem::temp_directory_path() / ("ember-checkpoint-bound-" + std::to_string(::getpid()));
+  std::filesystem::remove_all(dir);
+  scenario::JobOptions o;
+  o.table_points = 8;  // bookkeeping only: the table's accuracy is not what is tested
+  o.checkpoint = scenario::CheckpointOptions{dir, "bound test", false};
+  const scenario::JobResults first = scenario::run_job(loaded.scenario, o);
+  const auto files = static_cast<int>(std::distance(std::filesystem::directory_iterator(dir), {}));
+  CHECK(files == 1 + 1 + o.max_chunks);
+  const scenario::JobResults again = scenario::run_job(loaded.scenario, o);
+  CHECK(again.units_resumed == 1 + o.max_chunks);
+  REQUIRE(first.outcomes.at(0).curve.size() == 3000);
+  for (std::size_t r = 0; r < 3000; ++r)
+    CHECK(first.outcomes[0].curve[r].beta_max == again.outcomes[0].curve[r].beta_max);
+  std::filesystem::remove_all(dir);
 }
 
 TEST_CASE("a band mixing stable and metastable points, with widths, lambda6 and a light-cone count") {

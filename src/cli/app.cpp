@@ -45,7 +45,8 @@ int run(int argc, char** argv, ExecutorFactory factory) {
   app.set_version_flag("--version", std::string("ember ") + version);
   app.require_subcommand(1);
   app.footer(
-      "Exit codes: 0 success, 1 internal error, 2 bad input, 3 numerical failure.\n"
+      "Exit codes: 0 success, 1 internal error, 2 bad input, 3 numerical failure, 4 results could not be "
+      "written (disk full, no permission).\n"
       "Every command that prints results takes --json for one JSON object on stdout.");
 
   const std::vector<Command> commands{
@@ -79,6 +80,8 @@ int run_guarded(const std::function<int()>& body) {
     return report("", e.what(), exit_bad_input);
   } catch (const NumericalError& e) {
     return report("numerical failure in ", e.what(), exit_numerical);
+  } catch (const OutputError& e) {
+    return report("", e.what(), exit_output);
   } catch (const std::exception& e) {
     return report("internal error: ", e.what(), exit_internal);
   }

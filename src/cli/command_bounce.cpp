@@ -192,6 +192,7 @@ int scan(const BounceOptions& o) {
   csv += "\n";
   // --json: the same rows as one object; B is null where no bubble forms.
   nlohmann::ordered_json rows = nlohmann::ordered_json::array();
+  if (!o.output.empty()) check_writable_file(o.output);  // before the scan, not after
   Progress progress("ember bounce --scan", *n, o.quiet);
   for (long i = 0; i < *n; ++i) {
     const double m = from * std::pow(to / from, static_cast<double>(i) / static_cast<double>(*n - 1));
@@ -208,7 +209,7 @@ int scan(const BounceOptions& o) {
     }
     rows.push_back(std::move(row));
     csv += "\n";
-    progress.advance(i + 1, fmt::format("{:.3g} M_Pl", m / u::planck_mass));
+    progress.advance(i + 1, fmt::format("{} of {}: {:.3g} M_Pl", i + 1, *n, m / u::planck_mass));
   }
   progress.finish();
   require_finite_text(csv, o.output.empty() ? "the bounce scan" : o.output);

@@ -85,9 +85,10 @@ int power(const GreybodyOptions& o) {
 int rebuild(const GreybodyOptions& o) {
   BuildOptions options;
   options.quiet = o.quiet;
+  const std::filesystem::path out = o.output.empty() ? default_table_path() : std::filesystem::path(o.output);
+  check_writable_file(out);  // before a second of solving, not after
   BuildSummary summary;
   const Table table = build_table(options, &summary);
-  const std::filesystem::path out = o.output.empty() ? default_table_path() : std::filesystem::path(o.output);
   write_file_atomically(out, format_table(table, {}));
   if (o.json) {
     print_json({{"file", out.string()},

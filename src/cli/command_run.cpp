@@ -7,6 +7,7 @@
 #include "command.hpp"
 #include "ember/core/cache.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/output_set.hpp"
 #include "ember/core/parallel.hpp"
 #include "ember/report/outputs.hpp"
 #include "ember/scenario/job.hpp"
@@ -25,6 +26,7 @@ int run(const RunOptions& o, const ExecutorFactory& factory) {
   const scenario::LoadedScenario loaded = scenario::load_scenario_file(o.scenario);  // input, validated whole
   const std::filesystem::path out =
       o.output.empty() ? loaded.scenario.output.directory : std::filesystem::path(o.output);
+  check_results_folder(out);  // before the computation, not after
   scenario::JobOptions job;
   job.threads = o.threads;
   job.quiet = o.quiet;
@@ -45,12 +47,29 @@ int run(const RunOptions& o, const ExecutorFactory& factory) {
     std::cerr << fmt::format("ember: B(M) tables: {} from the cache{}, {} built\n", results.tables_from_cache,
                              job.cache_directory ? " in " + job.cache_directory->string() : std::string(" (off)"),
                              results.tables_built);
+  // Shown even with --quiet: the next run will rebuild what this one could not keep.
+  if (results.cache_warning)
+    std::cerr << fmt::format("ember: warning: {}; the tables built here will be built again next time\n",
+                             *results.cache_warning);
+  if (results.checkpoint_warning) std::cerr << fmt::format("ember: warning: {}\n", *results.checkpoint_warning);
   if (!o.quiet && results.greybody_from_cache)
     std::cerr << fmt::format("ember: greybody table: {}\n", *results.greybody_from_cache ? "from the cache" : "built");
   if (!o.quiet && results.units_resumed > 0)
     std::cerr << fmt::format("ember: resumed {} finished units (tables and chunks) from {}\n", results.units_resumed,
                              checkpoint.string());
-  const report::Written written = report::write_outputs(loaded, results, out, !o.no_plots);
+  const report::Written written = [&] {
+    try {
+      return report::write_outputs(loaded, results, out, !o.no_plots);
+    } catch (const OutputError& e) {
+      // The work is not lost: a rerun once there is room resumes from the checkpoint.
+      std::error_code ec;
+      if (!std::filesystem::exists(checkpoint / "job.identity", ec)) throw;
+      throw OutputError(
+          fmt::format("{}; the finished work is kept in {}, and rerunning the same command resumes "
+                      "from it",
+                      e.what(), checkpoint.string()));
+    }
+  }();
   scenario::Checkpoint::remove_folder(checkpoint);  // the outputs are whole: nothing left to resume
   if (o.json) {
     auto j = report::summary_json(loaded, results);

@@ -1,5 +1,7 @@
 #include "ember/core/cache.hpp"
 
+#include <fmt/format.h>
+
 #include <cstdlib>
 #include <fstream>
 #include <sstream>
@@ -25,13 +27,11 @@ std::optional<std::string> cache_read(const std::filesystem::path& directory, co
   return s.str();
 }
 
-bool cache_write(const std::filesystem::path& directory, const std::string& key, const std::string& text) {
-  try {
-    write_file_atomically(directory / key, text);
-    return true;
-  } catch (const InputError&) {
-    return false;
-  }
+std::optional<std::string> cache_write(const std::filesystem::path& directory, const std::string& key,
+                                       const std::string& text) {
+  const auto f = try_write_file_atomically(directory / key, text);
+  if (!f) return std::nullopt;
+  return fmt::format("the cache in {} cannot be written ({})", directory.string(), f->reason);
 }
 
 namespace {
@@ -55,7 +55,8 @@ std::optional<std::string> cache_read_checked(const std::filesystem::path& direc
   return entry ? without_checksum(*entry) : std::nullopt;
 }
 
-bool cache_write_checked(const std::filesystem::path& directory, const std::string& key, const std::string& text) {
+std::optional<std::string> cache_write_checked(const std::filesystem::path& directory, const std::string& key,
+                                               const std::string& text) {
   return cache_write(directory, key, with_checksum(text));
 }
 

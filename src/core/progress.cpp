@@ -3,11 +3,12 @@
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cstdio>
 
 namespace ember {
 
-Progress::Progress(std::string label, long total, bool quiet)
+Progress::Progress(std::string label, double total, bool quiet)
     : label_(std::move(label)),
       total_(total > 0 ? total : 1),
       quiet_(quiet),
@@ -15,7 +16,7 @@ Progress::Progress(std::string label, long total, bool quiet)
       start_(std::chrono::steady_clock::now()),
       last_(start_) {}
 
-void Progress::advance(long done, const std::string& detail) {
+void Progress::advance(double done, const std::string& detail) {
   if (quiet_) return;
   const auto now = std::chrono::steady_clock::now();
   const double since_last = std::chrono::duration<double>(now - last_).count();
@@ -23,16 +24,14 @@ void Progress::advance(long done, const std::string& detail) {
   last_ = now;
   shown_ = true;
   const double elapsed = std::chrono::duration<double>(now - start_).count();
-  const double fraction = static_cast<double>(done) / static_cast<double>(total_);
-  const double rate = elapsed > 0 ? static_cast<double>(done) / elapsed : 0;
-  const double left = rate > 0 ? static_cast<double>(total_ - done) / rate : 0;
+  const double fraction = std::clamp(done / total_, 0.0, 1.0);
+  const double left = fraction > 0 ? elapsed * (1 - fraction) / fraction : 0;
   if (terminal_) {
     const int width = 30, filled = static_cast<int>(fraction * width);
-    fmt::print(stderr, "\r{} [{}{}] {:3.0f}%  {:.0f}/s  {:.0f} s left  {:<28}", label_, std::string(filled, '#'),
-               std::string(width - filled, '-'), 100 * fraction, rate, left, detail);
+    fmt::print(stderr, "\r{} [{}{}] {:3.0f}%  {:.0f} s left  {:<36}", label_, std::string(filled, '#'),
+               std::string(width - filled, '-'), 100 * fraction, left, detail);
   } else {
-    fmt::print(stderr, "{}: {:.0f}% ({} of {}), {:.0f} s left {}\n", label_, 100 * fraction, done, total_, left,
-               detail);
+    fmt::print(stderr, "{}: {:.0f}%, {:.0f} s left {}\n", label_, 100 * fraction, left, detail);
   }
   std::fflush(stderr);
 }

@@ -27,13 +27,14 @@ CachedMassLoss cached_mass_loss(const greybody::Table& g, const ParticleSet& p, 
   if (directory)
     if (const auto body = cache_read_checked(*directory, key)) {
       try {
-        return {MassLoss::from_nodes(g, p, o, *body), true};
+        return {MassLoss::from_nodes(g, p, o, *body), true, std::nullopt};
       } catch (const InputError&) {  // damaged: rebuild below
       }
     }
   MassLoss built(g, p, o);
-  if (directory) cache_write_checked(*directory, key, built.nodes_text());
-  return {std::move(built), false};
+  std::optional<std::string> failure;
+  if (directory) failure = cache_write_checked(*directory, key, built.nodes_text());
+  return {std::move(built), false, failure};
 }
 
 }  // namespace ember::evaporation

@@ -24,14 +24,15 @@ CachedGreybody cached_table(const BuildOptions& o, const std::optional<std::file
   if (directory)
     if (const auto body = cache_read_checked(*directory, key)) {
       try {
-        return {parse_table(*body, (*directory / key).string()), true};
+        return {parse_table(*body, (*directory / key).string()), true, std::nullopt};
       } catch (const InputError&) {  // damaged: rebuilt below
       }
     }
   // No notes: two processes building one key write the same bytes (no timings in the text).
   const std::string text = format_table(build_table(o), {});
-  if (directory) cache_write_checked(*directory, key, text);
-  return {parse_table(text, "the greybody table just built"), false};
+  std::optional<std::string> failure;
+  if (directory) failure = cache_write_checked(*directory, key, text);
+  return {parse_table(text, "the greybody table just built"), false, failure};
 }
 
 }  // namespace ember::greybody

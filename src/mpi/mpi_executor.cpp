@@ -95,11 +95,13 @@ void MpiExecutor::run(const std::vector<std::size_t>& pending, const scenario::U
         try {
           feed.finished(*i, work(*i));
         } catch (const InputError& e) {
-          feed.fail(2, e.what());
+          feed.fail(exit_bad_input, e.what());
         } catch (const NumericalError& e) {
-          feed.fail(3, std::string("numerical failure in ") + e.what());
+          feed.fail(exit_numerical, std::string("numerical failure in ") + e.what());
+        } catch (const OutputError& e) {
+          feed.fail(exit_output, e.what());
         } catch (const std::exception& e) {
-          feed.fail(1, std::string("internal error: ") + e.what());
+          feed.fail(exit_internal, std::string("internal error: ") + e.what());
         }
       }
     });

@@ -11,6 +11,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/hash.hpp"
+#include "ember/core/output_set.hpp"
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
 #include "ember/version.hpp"
@@ -295,6 +296,24 @@ std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobR
   return t;
 }
 
+namespace {
+
+// Runs scripts/plot over the CSV files in `folder`; says what happened.
+std::string draw_plots(const scenario::Scenario& s, const std::filesystem::path& folder, bool plots) {
+  const std::filesystem::path script = data_directory() / ".." / "scripts" / "plot";
+  if (!plots) return "plots skipped (--no-plots)";
+  if (std::system(fmt::format("{} -c 'import matplotlib' >/dev/null 2>&1", python()).c_str()) != 0)
+    return "plots skipped: python3 with matplotlib is not installed (Debian: python3-matplotlib)";
+  std::string formats;
+  for (const auto& f : s.output.plot_formats) formats += (formats.empty() ? "" : ",") + f;
+  const std::string command = fmt::format("{} '{}' '{}' --formats {} >/dev/null 2>&1", python(),
+                                          script.lexically_normal().string(), folder.string(), formats);
+  return std::system(command.c_str()) == 0 ? "plots written by scripts/plot"
+                                           : "plots failed: scripts/plot returned an error";
+}
+
+}  // namespace
+
 Written write_outputs(const scenario::LoadedScenario& l, const scenario::JobResults& r,
                       const std::filesystem::path& dir, bool plots) {
   Written w;
@@ -317,25 +336,14 @@ Written write_outputs(const scenario::LoadedScenario& l, const scenario::JobResu
   }
   for (const auto& [name, text] : texts)
     if (name != "summary.json" && name != "resolved.yaml") require_finite_text(text, name);
+  // The set appears whole or not at all (core/output_set.hpp), summary.json last.
+  OutputSet set(dir, "summary.json");
   for (const auto& [name, text] : texts) {
-    write_file_atomically(dir / name, text);
+    set.add(name, text);
     w.files.push_back(name);
   }
-  if (wants(s, "plots")) {
-    const std::filesystem::path script = data_directory() / ".." / "scripts" / "plot";
-    if (!plots) {
-      w.plots_note = "plots skipped (--no-plots)";
-    } else if (std::system(fmt::format("{} -c 'import matplotlib' >/dev/null 2>&1", python()).c_str()) != 0) {
-      w.plots_note = "plots skipped: python3 with matplotlib is not installed (Debian: python3-matplotlib)";
-    } else {
-      std::string formats;
-      for (const auto& f : s.output.plot_formats) formats += (formats.empty() ? "" : ",") + f;
-      const std::string command = fmt::format("{} '{}' '{}' --formats {} >/dev/null 2>&1", python(),
-                                              script.lexically_normal().string(), dir.string(), formats);
-      w.plots_note = std::system(command.c_str()) == 0 ? "plots written by scripts/plot"
-                                                       : "plots failed: scripts/plot returned an error";
-    }
-  }
+  if (wants(s, "plots")) w.plots_note = draw_plots(s, set.staging(), plots);
+  (void)set.commit();
   return w;
 }
 

@@ -11,6 +11,15 @@ namespace ember::scenario {
 namespace {
 constexpr const char* identity_file = "job.identity";
 
+// A checkpoint that cannot be written is an error (unlike the cache: resuming would be lost),
+// named by its folder.
+void write_or_fail(const std::filesystem::path& dir, const std::string& name, const std::string& text) {
+  if (const auto f = try_write_file_atomically(dir / name, text))
+    throw_write_failure(*f, fmt::format("{}: cannot write the checkpoint: {}; expected a writable folder (choose "
+                                        "another with --checkpoint)",
+                                        dir.string(), f->reason));
+}
+
 }  // namespace
 
 Checkpoint::Checkpoint(const CheckpointOptions& o) : dir_(o.directory) {
@@ -23,7 +32,7 @@ Checkpoint::Checkpoint(const CheckpointOptions& o) : dir_(o.directory) {
           (dir_ / identity_file).string()));
   }
   if (o.restart || (existing && *existing != o.identity + "\n")) std::filesystem::remove_all(dir_);
-  if (!existing || o.restart) write_file_atomically(dir_ / identity_file, o.identity + "\n");
+  if (!existing || o.restart) write_or_fail(dir_, identity_file, o.identity + "\n");
 }
 
 std::filesystem::path Checkpoint::unit_file(std::size_t unit) const {
@@ -34,9 +43,13 @@ std::optional<std::string> Checkpoint::load(std::size_t unit) const {
   return cache_read_checked(dir_, unit_file(unit).filename().string());
 }
 
-void Checkpoint::save(std::size_t unit, const std::string& text) const {
-  // Unlike the cache, a checkpoint that cannot be written is an error: resuming would be lost.
-  write_file_atomically(unit_file(unit), with_checksum(text));
+void Checkpoint::save(std::size_t unit, const std::string& text) {
+  if (failure_) return;
+  if (const auto f = try_write_file_atomically(unit_file(unit), with_checksum(text)))
+    failure_ = fmt::format(
+        "the checkpoint in {} cannot be written ({}); the run goes on without it, and the "
+        "work saved before still resumes it",
+        dir_.string(), f->reason);
 }
 
 void Checkpoint::remove_folder(const std::filesystem::path& directory) {

@@ -124,6 +124,7 @@ greybody::Table greybody_table(const EvaporationChoices& e, const JobOptions& o,
   out.greybody = fmt::format("computed by this binary, {} points per mode (stated interpolation error {:.1e})",
                              b.points_per_mode, c.table.header().interpolation_error);
   out.greybody_from_cache = c.hit;
+  if (c.store_failure) out.cache_warning = c.store_failure;
   return std::move(c.table);
 }
 
@@ -148,10 +149,11 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   JobResults out;
   const cosmology::Background background(s.cosmology, s.dof_table ? cosmology::DegreesOfFreedom::load(*s.dof_table)
                                                                   : cosmology::DegreesOfFreedom::load_default());
-  const evaporation::MassLoss mass_loss =
+  evaporation::CachedMassLoss cached_loss =
       evaporation::cached_mass_loss(greybody_table(s.evaporation, o, out), evaporation::load_default_particles(),
-                                    with_progress(s.evaporation.mass_loss, o), o.cache_directory)
-          .mass_loss;
+                                    with_progress(s.evaporation.mass_loss, o), o.cache_directory);
+  if (!out.cache_warning) out.cache_warning = cached_loss.store_failure;
+  const evaporation::MassLoss mass_loss = std::move(cached_loss.mass_loss);
   out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);
   detail::JobPlan plan;
   plan.scenario = &s;
@@ -262,13 +264,23 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   // Fewer tables than threads (a single-point run): the spare threads solve each table's nodes.
   plan.table_options.threads =
       std::max(1, o.threads / static_cast<int>(std::max<std::size_t>(1, pending_tables.size())));
-  Progress progress("ember run", static_cast<long>(pending.size()), o.quiet || !executor.assembles());
-  long done = 0;
+  // Progress by expected cost (job_units.hpp): a B(M) table outweighs a chunk of masses.
+  const auto cost = [&](std::size_t i) {
+    return i < n_tables ? detail::expected_table_cost(plan, i) : detail::expected_chunk_cost(plan, i - n_tables);
+  };
+  double total_cost = 0, done_cost = 0;
+  for (const std::size_t i : pending) total_cost += cost(i);
+  Progress progress("ember run", total_cost, o.quiet || !executor.assembles());
+  std::size_t tables_done = 0, chunks_done = 0;
   const auto finished = [&](std::size_t i, const std::string& text) {
     texts[i] = text;
     if (checkpoint) checkpoint->save(i, text);
+    done_cost += cost(i);
+    ++(i < n_tables ? tables_done : chunks_done);
     const std::size_t t = i < n_tables ? i : (i - n_tables) / per_table;
-    progress.advance(++done, name_of(s.tunnelling.prescriptions[t % n_presc]));
+    progress.advance(done_cost,
+                     fmt::format("{}: tables {}/{}, chunks {}/{}", name_of(s.tunnelling.prescriptions[t % n_presc]),
+                                 tables_done, pending_tables.size(), chunks_done, pending_chunks.size()));
   };
   executor.run(
       pending_tables, [&](std::size_t t) { return detail::table_work(plan, t); }, finished);
@@ -284,6 +296,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   executor.run(
       pending_chunks, [&](std::size_t i) { return detail::chunk_work(plan, tables, i - n_tables); }, finished);
   progress.finish();
+  if (checkpoint) out.checkpoint_warning = checkpoint->failure();
   out.assembled = executor.assembles();
   if (!out.assembled) return out;
 
@@ -297,8 +310,10 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     units[t] = detail::assemble_unit(plan, t, records[t], tables[t], chunks);
   }
   // Tables this run computed (not those resumed from the checkpoint): built, or read from the cache.
-  for (const std::size_t t : pending_tables)
+  for (const std::size_t t : pending_tables) {
     if (records[t].cache_hit) ++(*records[t].cache_hit ? out.tables_from_cache : out.tables_built);
+    if (!out.cache_warning && !records[t].cache_failure.empty()) out.cache_warning = records[t].cache_failure;
+  }
 
   // Assemble, in order.
   std::vector<std::vector<std::vector<std::optional<double>>>> band_values(
@@ -392,9 +407,9 @@ namespace ember::scenario {
 std::string job_identity(const JobOptions& o) {
   return fmt::format(
       "ember {} numerics {} table_points {} table_check_stride {} responses_per_decade {} "
-      "decay_grid_points {} plot_points {} rows_per_chunk {} grid_per_chunk {}",
+      "decay_grid_points {} plot_points {} rows_per_chunk {} grid_per_chunk {} max_chunks {}",
       version, embedded::numerics_fingerprint(), o.table_points, o.table_check_stride, o.responses_per_decade,
-      o.decay_grid_points, o.plot_points, o.rows_per_chunk, o.grid_per_chunk);
+      o.decay_grid_points, o.plot_points, o.rows_per_chunk, o.grid_per_chunk, o.max_chunks);
 }
 
 }  // namespace ember::scenario

@@ -57,6 +57,11 @@ struct JobPlan {
 
 using Tables = std::vector<std::optional<tunnelling::ActionTable>>;
 
+// The expected cost of a work item, in B(M) nodes of one probe_field static solve, for the
+// progress estimate (the results never depend on it).
+double expected_table_cost(const JobPlan& plan, std::size_t table);
+double expected_chunk_cost(const JobPlan& plan, std::size_t chunk_index);
+
 std::string table_work(const JobPlan& plan, std::size_t table);
 // Item `chunk_index` = table * chunks_per_table() + chunk.
 std::string chunk_work(const JobPlan& plan, const Tables& tables, std::size_t chunk_index);

@@ -107,18 +107,23 @@ std::string to_text(const TableResult& t) {
   const char* state = t.state == TableResult::State::table    ? "table"
                       : t.state == TableResult::State::failed ? "failed"
                                                               : "none";
-  w.word("ember-table").whole(1).word(state).word(!t.cache_hit ? "-" : *t.cache_hit ? "1" : "0").end_line();
+  w.word("ember-table").whole(2).word(state).word(!t.cache_hit ? "-" : *t.cache_hit ? "1" : "0").end_line();
   w.text_line("failure", t.failure);
+  w.text_line("cache_failure", t.cache_failure);
   return w.str() + t.table;  // the table's own text, to the end
 }
 
 TableResult table_from_text(const std::string& text, const std::string& what) {
-  const std::size_t first = text.find('\n'), second = first == std::string::npos ? first : text.find('\n', first + 1);
-  if (second == std::string::npos) throw InputError(what + ": a table record needs two header lines");
-  RecordReader in(text.substr(0, second + 1), what);
+  std::size_t end = 0;  // past the three header lines
+  for (int line = 0; line < 3 && end != std::string::npos; ++line) {
+    end = text.find('\n', end);
+    if (end != std::string::npos) ++end;
+  }
+  if (end == std::string::npos) throw InputError(what + ": a table record needs three header lines");
+  RecordReader in(text.substr(0, end), what);
   TableResult t;
   in.expect("ember-table");
-  in.expect("1");
+  in.expect("2");
   const std::string state = in.word();
   if (state == "table")
     t.state = TableResult::State::table;
@@ -131,7 +136,8 @@ TableResult table_from_text(const std::string& text, const std::string& what) {
   const std::string cache = in.word();
   if (cache != "-") t.cache_hit = cache == "1";
   t.failure = in.text_line("failure");
-  t.table = text.substr(second + 1);
+  t.cache_failure = in.text_line("cache_failure");
+  t.table = text.substr(end);
   return t;
 }
 

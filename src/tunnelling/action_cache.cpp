@@ -31,15 +31,16 @@ CachedTable cached_action_table(Prescription p, const TunnellingSetup& setup, co
     if (const auto body = cache_read_checked(*directory, key)) {
       try {
         ActionTable t = ActionTable::from_text(*body);
-        if (t.prescription() == p) return {std::move(t), true, key};
+        if (t.prescription() == p) return {std::move(t), true, key, std::nullopt};
       } catch (const InputError&) {  // a damaged entry: rebuild it below
       } catch (const std::logic_error&) {
       }
     }
   }
   ActionTable built(p, setup, options);
-  if (directory) cache_write_checked(*directory, key, built.to_text());
-  return {std::move(built), false, key};
+  std::optional<std::string> failure;
+  if (directory) failure = cache_write_checked(*directory, key, built.to_text());
+  return {std::move(built), false, key, failure};
 }
 
 }  // namespace ember::tunnelling

@@ -315,6 +315,17 @@ StaticOptions static_options(const TunnellingSetup& s, const ActionEffort& effor
   return o;
 }
 
+double relative_node_cost(Prescription p) {
+  switch (p) {
+    case Prescription::entropy_drop:
+    case Prescription::probe_field:
+    case Prescription::hot_bubble: return 1.0;
+    case Prescription::no_seed:
+    case Prescription::thin_wall: return 0.07;
+  }
+  return 1.0;
+}
+
 ActionPoint action_at(Prescription p, const TunnellingSetup& s, double seed, const ActionEffort& effort) {
   if (!s.potential) throw InputError("tunnelling: no potential given");
   if (!(seed > 0) || !std::isfinite(seed))

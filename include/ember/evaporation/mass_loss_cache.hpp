@@ -20,6 +20,7 @@ std::string mass_loss_key(const greybody::Table& greybody, const ParticleSet& pa
 struct CachedMassLoss {
   MassLoss mass_loss;
   bool hit = false;
+  std::optional<std::string> store_failure;  // built, but the cache could not keep it: why
 };
 
 // With no directory nothing is read or stored. A damaged entry is rebuilt and overwritten.

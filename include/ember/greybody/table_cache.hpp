@@ -24,6 +24,7 @@ std::string table_key(const BuildOptions& options);
 struct CachedGreybody {
   Table table;
   bool hit = false;
+  std::optional<std::string> store_failure;  // built, but the cache could not keep it: why
 };
 
 // With no directory nothing is read or stored. A damaged entry is rebuilt and overwritten.

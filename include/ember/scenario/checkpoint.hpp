@@ -19,16 +19,21 @@ struct CheckpointOptions {
 
 class Checkpoint {
  public:
-  // Throws InputError when the folder holds another job's checkpoint and restart is off.
+  // Throws InputError when the folder holds another job's checkpoint and restart is off, and
+  // InputError or OutputError (core/atomic_file.hpp) when the folder cannot be written at all.
   explicit Checkpoint(const CheckpointOptions& options);
   std::optional<std::string> load(std::size_t unit) const;  // none if absent or damaged
-  void save(std::size_t unit, const std::string& text) const;
+  // A unit that cannot be saved (the disk filled up during the run) does not stop the run: the
+  // units saved so far still resume it. Saving stops, and failure() says why.
+  void save(std::size_t unit, const std::string& text);
+  const std::optional<std::string>& failure() const { return failure_; }
   // After the outputs are written the checkpoint has served its purpose. Best effort.
   static void remove_folder(const std::filesystem::path& directory);
 
  private:
   std::filesystem::path unit_file(std::size_t unit) const;
   std::filesystem::path dir_;
+  std::optional<std::string> failure_;
 };
 
 }  // namespace ember::scenario

@@ -31,6 +31,10 @@ struct JobOptions {
   // response-grid masses (extended spectra); the results do not depend on either.
   int rows_per_chunk = 8;
   int grid_per_chunk = 12;
+  // ... but chunks grow so that all tables together have at most this many (at least one per
+  // table): each chunk is a checkpoint file, written and fsync'd, so a 1e5-row grid makes
+  // hundreds of files rather than 12,500.
+  int max_chunks = 256;
   int threads = 1;    // worker threads; the results do not depend on it
   bool quiet = true;  // no progress bar on stderr
   // Tables are kept here between runs (greybody/table_cache.hpp, evaporation/mass_loss_cache.hpp,
@@ -109,10 +113,12 @@ struct JobResults {
   std::vector<double> plot_field, plot_lambda, plot_lambda_eff;  // the potential, for plots
   double survivors_mass = 0;                                     // holes above this mass survive today (GeV)
   double seconds = 0;
-  int tables_built = 0, tables_from_cache = 0;  // B(M) tables, per (Higgs point, prescription)
-  int units_resumed = 0;                        // units read back from a checkpoint
-  std::vector<FailedPoint> failures;            // in scan order; empty when every point succeeded
-  bool assembled = true;                        // false on MPI ranks that only computed
+  int tables_built = 0, tables_from_cache = 0;    // B(M) tables, per (Higgs point, prescription)
+  int units_resumed = 0;                          // units read back from a checkpoint
+  std::optional<std::string> cache_warning;       // the cache could not keep a table built here: why (the first)
+  std::optional<std::string> checkpoint_warning;  // checkpointing stopped during the run: why
+  std::vector<FailedPoint> failures;              // in scan order; empty when every point succeeded
+  bool assembled = true;                          // false on MPI ranks that only computed
 };
 
 // Throws InputError for a prescription the potential cannot take (hot_bubble needs the Standard

@@ -34,7 +34,8 @@ UnitResult unit_from_text(const std::string& text, const std::string& what);
 struct TableResult {
   enum class State { table, no_decay, failed } state = State::no_decay;
   std::optional<bool> cache_hit;
-  std::string failure;  // why, when failed
+  std::string failure;        // why, when failed
+  std::string cache_failure;  // built, but the cache could not keep it: why (empty: it could)
   std::string table;
 };
 

@@ -17,8 +17,9 @@ namespace ember::tunnelling {
 
 struct CachedTable {
   ActionTable table;
-  bool hit = false;  // read from the cache rather than built
-  std::string key;   // the entry's file name
+  bool hit = false;                          // read from the cache rather than built
+  std::string key;                           // the entry's file name
+  std::optional<std::string> store_failure;  // built, but the cache could not keep it: why
 };
 
 std::string action_table_key(Prescription p, const TunnellingSetup& setup, const ActionTableOptions& options);

@@ -40,6 +40,11 @@ inline constexpr Prescription all_prescriptions[] = {Prescription::entropy_drop,
 std::string name_of(Prescription p);
 std::optional<Prescription> prescription_named(const std::string& name);
 std::string assumptions(Prescription p);  // one paragraph
+// The cost of one B(M) node under this prescription relative to one probe_field node (a static
+// bubble solve), for progress estimates only. Measured on 30-node Standard Model tables
+// (docs/benchmarks.md): entropy_drop and hot_bubble cost about as much as probe_field, no_seed
+// and thin_wall (closed forms and a scan) about a fifteenth.
+double relative_node_cost(Prescription p);
 
 struct Flags {
   bool below_floor = false;        // seed below the semiclassical floor
