@@ -145,6 +145,9 @@ TEST_CASE("potential derivatives agree with finite differences") {
       CAPTURE(h);
       CHECK(close(p->slope(h), (p->value(h + e) - p->value(h - e)) / (2 * e), 1e-5));
       CHECK(close(p->curvature(h), (p->slope(h + e) - p->slope(h - e)) / (2 * e), 1e-4));
+      // The shooting codes' combined call gives the same numbers as the two apart.
+      CHECK(p->value_slope(h).value == p->value(h));
+      CHECK(p->value_slope(h).slope == p->slope(h));
     }
   CHECK(close(poly.value(2e10), 1e40 * (0.5 * 4 - 0.01 * 16 + 0.002 * 64), 1e-14));
   CHECK(close(sm.quartic(1e12),

@@ -371,6 +371,32 @@ TEST_CASE("B(M) tables interpolate direct solves within their stated error") {
   CHECK_THROWS_WITH_AS(bad.validate(), doctest::Contains("points"), ember::InputError);
 }
 
+TEST_CASE("B(M) tables agree with the tables of commit 92cf368 within their stated error") {
+  // Reference: tables written before the shooting's potential moved to a uniform-grid cubic and
+  // B(M) tables dropped the residual check and found their top by rough solves
+  // (tests/data/action_tables/README.md). Same inputs and options; every node's B must agree
+  // within the stated interpolation error, relative to max(B, 1).
+  const TunnellingSetup s = sm_setup();
+  ActionTableOptions o;
+  o.points = 30;
+  o.midpoint_stride = 6;
+  for (const auto p : {Prescription::entropy_drop, Prescription::probe_field, Prescription::hot_bubble}) {
+    CAPTURE(name_of(p));
+    std::ifstream in(ember::testing::source_dir / "tests/data/action_tables" / (name_of(p) + ".txt"));
+    const ActionTable reference = ActionTable::from_text(std::string(std::istreambuf_iterator<char>(in), {}));
+    const ActionTable now(p, s, o);
+    CHECK(now.top() == reference.top());
+    REQUIRE(now.nodes().size() == reference.nodes().size());
+    const double stated = reference.summary().interpolation_error;
+    for (std::size_t i = 0; i < now.nodes().size(); ++i) {
+      const ActionPoint &a = now.nodes()[i], &b = reference.nodes()[i];
+      CAPTURE(i);
+      CHECK(close(a.seed_mass, b.seed_mass, stated));
+      CHECK(std::abs(a.action.value - b.action.value) <= stated * std::max(b.action.value, 1.0));
+    }
+  }
+}
+
 TEST_CASE("heavy seeds: no bracket is an error, and never a negative B") {
   // Around 1e13 M_Pl the Standard Model shot from the escape point already overshoots: the solver
   // must say so (and the prescriptions fall back, flagged) rather than report B < 0 (found in review).

@@ -92,9 +92,7 @@ double StandardModelPotential::lambda_eff(double h) const {
 }
 
 double StandardModelPotential::value(double h) const {
-  const double h2 = h * h, h4 = h2 * h2;
-  return lambda_eff(h) * h4 / 4 + options_.lambda6 * h4 * h2 / (6 * mbar2) +
-         options_.lambda8 * h4 * h4 / (8 * mbar2 * mbar2);
+  return value_slope(h).value;
 }
 
 double StandardModelPotential::slope(double h) const {
@@ -104,11 +102,13 @@ double StandardModelPotential::slope(double h) const {
 ValueSlope StandardModelPotential::value_slope(double h) const {
   const UniformCubic::Point p = lambda_eff_at(table_->lambda_eff, std::log(h));
   const double h2 = h * h, h3 = h2 * h, h4 = h2 * h2;
-  const double value =
-      p.value * h4 / 4 + options_.lambda6 * h4 * h2 / (6 * mbar2) + options_.lambda8 * h4 * h4 / (8 * mbar2 * mbar2);
-  const double slope = h3 * p.value + h3 * p.first / 4 + options_.lambda6 * h3 * h2 / mbar2 +
-                       options_.lambda8 * h3 * h3 * h / (mbar2 * mbar2);
-  return {value, slope};
+  ValueSlope v{p.value * h4 / 4, h3 * p.value + h3 * p.first / 4};
+  // The operators' divisions cost a tenth of a shot's time: skipped when there are none.
+  if (options_.lambda6 != 0 || options_.lambda8 != 0) {
+    v.value += options_.lambda6 * h4 * h2 / (6 * mbar2) + options_.lambda8 * h4 * h4 / (8 * mbar2 * mbar2);
+    v.slope += options_.lambda6 * h3 * h2 / mbar2 + options_.lambda8 * h3 * h3 * h / (mbar2 * mbar2);
+  }
+  return v;
 }
 
 double StandardModelPotential::curvature(double h) const {

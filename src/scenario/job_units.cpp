@@ -37,9 +37,10 @@ std::pair<std::size_t, std::size_t> JobPlan::chunk_span(std::size_t chunk) const
 }
 
 namespace {
-// One formation mass's response (trajectory, hazard integral, light cone) against one static
-// solve: about 0.16 ms against 4.6 ms, measured (docs/benchmarks.md).
-constexpr double response_cost = 0.035;
+// One formation mass's response (trajectory, hazard integral, light cone) against one
+// probe_field node: about 0.1 (0.2 to 0.6 ms against 4 ms, measured by scripts/bench;
+// docs/benchmarks.md).
+constexpr double response_cost = 0.1;
 // A table's top search: about six rough solves at half the cost of a node.
 constexpr double top_search_cost = 3;
 }  // namespace

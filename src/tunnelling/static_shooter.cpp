@@ -34,7 +34,7 @@ double Shooter::f_of(double x, double dm) const {
 double Shooter::f_of(double x, double exp_x, double dm) const {
   const double inverse = 1 / exp_x;
   const double outside = x < 0.5 ? -std::expm1(-x) : 1 - inverse;
-  return outside - 2 * G_ * dm * inverse / r_h_;
+  return G_ == 0 ? outside : outside - 2 * G_ * dm * inverse / r_h_;  // the probe limit: no back-reaction
 }
 
 void Shooter::rhs(const State& s, State& ds, double x) {

@@ -2,16 +2,19 @@
 // workload: name, wall seconds per run, runs, and a throughput note. Targets live in
 // scripts/bench, never in tests.
 #include <fmt/format.h>
+#include <sys/resource.h>
 
 #include <chrono>
 #include <cmath>
 #include <functional>
 
+#include "ember/cosmology/background.hpp"
 #include "ember/evaporation/trajectory.hpp"
 #include "ember/greybody/emission.hpp"
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/higgs/stability.hpp"
+#include "ember/population/counts.hpp"
 #include "ember/scenario/job.hpp"
 #include "ember/scenario/load.hpp"
 #include "ember/tunnelling/action_table.hpp"
@@ -20,6 +23,23 @@
 namespace {
 
 using clock_type = std::chrono::steady_clock;
+
+// CPU seconds of this process so far (user + system), for the per-point costs.
+double cpu_seconds() {
+  rusage u{};
+  ::getrusage(RUSAGE_SELF, &u);
+  return static_cast<double>(u.ru_utime.tv_sec + u.ru_stime.tv_sec) +
+         1e-6 * static_cast<double>(u.ru_utime.tv_usec + u.ru_stime.tv_usec);
+}
+
+// CPU seconds per run of `work`, printed as a row; returned for the ratios below.
+double report_cpu(const std::string& name, int runs, const std::function<void(int)>& work, const std::string& note) {
+  const double start = cpu_seconds();
+  for (int i = 0; i < runs; ++i) work(i);
+  const double per_run = (cpu_seconds() - start) / runs;
+  fmt::print("{}\t{:.6e}\t{}\t{}\n", name, per_run, runs, note);
+  return per_run;
+}
 
 void report(const std::string& name, int runs, const std::function<void()>& work, const std::string& unit = "") {
   work();  // warm up (caches, lazy loads)
@@ -137,5 +157,54 @@ int main() {
   const auto band_scenario = ember::scenario::load_scenario_text(band, "bench-band.yaml", ".");
   report("run: 5 x 5 x 3 Higgs-input band (probe_field, 20 masses)", 1,
          [&] { sink = sink + ember::scenario::run_job(band_scenario.scenario).seconds; });
+  // Band points against the yardstick, both in CPU seconds of this run. A band point is what the
+  // main job does per Higgs-input point and prescription: the running, the potential and its
+  // verdict, and a B(M) table with the job's options (JobOptions: 30 nodes, a check every 6).
+  // Target: at most 0.2 CPU-s per band point at the yardstick's reference speed, 1.22 s (the
+  // greybody rebuild measured when the target was set, docs/benchmarks.md).
+  const double yardstick = report_cpu(
+      "yardstick: greybody table rebuild (CPU-s)", 2, [&](int) { sink = sink + build_table(quiet).rows().size(); }, "");
+  ActionTableOptions job_table;
+  job_table.points = 30;
+  job_table.midpoint_stride = 6;
+  const int nodes_and_checks = job_table.points + (job_table.points - 2) / job_table.midpoint_stride + 1;
+  const auto band_point = [&](Prescription p, int i) {
+    Inputs in = sm;
+    in.top_mass += 0.25 * i;  // a different point each time: nothing is reused
+    const StandardModelPotential pot(std::make_shared<const Running>(in));
+    sink = sink + analyse_stability(pot).lambda_min;
+    TunnellingSetup s;
+    s.potential = &pot;
+    s.standard_model = &pot;
+    sink = sink + ActionTable(p, s, job_table).nodes().size();
+  };
+  std::vector<double> per_node;
+  for (const auto p : all_prescriptions) {
+    if (p == Prescription::thin_wall) continue;  // needs a wall, not the Standard Model alone
+    const double point = report_cpu(
+        "band point: running, verdict and 30-node B(M) table, " + name_of(p) + " (CPU-s)", 3,
+        [&](int i) { band_point(p, i); }, "");
+    fmt::print("band point at the reference yardstick (1.22 s), {}\t{:.6e}\t1\ttarget <= 0.2 CPU-s\n", name_of(p),
+               point * 1.22 / yardstick);
+    per_node.push_back(point / nodes_and_checks);
+    fmt::print("B(M) node, {} (CPU-s)\t{:.6e}\t{}\tmodel: {:.2f} x probe_field\n", name_of(p), point / nodes_and_checks,
+               nodes_and_checks, relative_node_cost(p));
+  }
+  // One formation mass's response (trajectory, hazard, light cone), against a probe_field node:
+  // the progress estimate's model says 0.1.
+  const ember::cosmology::Background background(ember::cosmology::planck2018(),
+                                                ember::cosmology::DegreesOfFreedom::load_default());
+  ember::population::ResponseContext context;
+  context.background = &background;
+  context.mass_loss = &ml;
+  const ActionTable probe_table(Prescription::probe_field, setup, job_table);
+  const double response = report_cpu(
+      "one formation mass's response (trajectory, hazard, light cone) (CPU-s)", 2000,
+      [&](int i) {
+        sink = sink + ember::population::response_at(std::pow(10.0, 2 + 10.0 * i / 1999) * gram, probe_table, context)
+                          .lightcone_per_beta;
+      },
+      "");
+  fmt::print("response against a probe_field node\t{:.6e}\t1\tmodel: 0.1\n", response / per_node.at(1));
   return sink == 12345.0;  // keeps the work from being optimised away
 }
