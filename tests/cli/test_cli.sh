@@ -294,12 +294,4 @@ if "below_semiclassical_floor" not in json.loads((work / "floor.json").read_text
 sys.exit(1 if bad else 0)
 PY
 
-# No output of this test holds a NaN or an inf (issue 9); err and out are captured messages,
-# which quote the user's own (bad) input.
-python3 "$src/tests/cli/scan_non_finite.py" "$work" --skip err --skip out || failures=$((failures + 1))
-
-if ((failures > 0)); then
-  echo "$failures failure(s)"
-  exit 1
-fi
-echo "all command-line checks passed"
+finish "command line"

@@ -12,24 +12,12 @@ run "grid of 1e5" 0 -- "$ember" run "$grid" -o "$work/whole" --no-plots --quiet
 [[ $(grep -vc '^#' "$work/whole/constraint.csv") == 100001 ]] || fail "grid of 1e5: expected 1e5 rows"
 # Killed once part of the work is checkpointed, then resumed: the same files.
 "$ember" run "$grid" -o "$work/killed" --no-plots --quiet --threads 1 >/dev/null 2>&1 &
-victim=$!
-for _ in $(seq 1 1200); do
-  [[ $(ls "$work/killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-') -ge 20 ]] && break
-  kill -0 $victim 2>/dev/null || break
-  sleep 0.05
-done
-kill -9 $victim 2>/dev/null
-wait $victim 2>/dev/null
-files=$(ls "$work/killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-')
+kill_when_checkpointed $! "$work/killed/.ember-checkpoint" 20
+files=$checkpointed
 [[ $files -ge 20 ]] || fail "grid of 1e5: only $files checkpoint files at the kill"
 run "grid of 1e5 resumed" 0 -- "$ember" run "$grid" -o "$work/killed" --no-plots
 stderr_has "grid of 1e5 resumed" "resumed $files finished units"
 for f in constraint.csv decay.csv rates.csv potential.csv resolved.yaml; do
   cmp -s "$work/whole/$f" "$work/killed/$f" || fail "grid of 1e5: $f differs after the resume"
 done
-python3 "$src/tests/cli/scan_non_finite.py" "$work/whole" || failures=$((failures + 1))
-if ((failures)); then
-  echo "$failures failure(s)"
-  exit 1
-fi
-echo "large grid: all checks passed"
+finish "large grid"

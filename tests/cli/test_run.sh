@@ -103,15 +103,8 @@ YAML
 run "band uninterrupted" 0 -- "$ember" run "$work/band.yaml" -o "$work/band-whole" --no-plots --quiet
 [[ -e "$work/band-whole/.ember-checkpoint" ]] && fail "band uninterrupted: checkpoint left after a finished run"
 "$ember" run "$work/band.yaml" -o "$work/band-killed" --no-plots --quiet --no-cache --threads 1 >/dev/null 2>&1 &
-victim=$!
-for _ in $(seq 1 600); do
-  [[ $(ls "$work/band-killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-') -ge 2 ]] && break
-  kill -0 $victim 2>/dev/null || break
-  sleep 0.05
-done
-kill -9 $victim 2>/dev/null
-wait $victim 2>/dev/null
-finished=$(ls "$work/band-killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-')
+kill_when_checkpointed $! "$work/band-killed/.ember-checkpoint" 2
+finished=$checkpointed
 tables_done=$(ls "$work/band-killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-00000[0-6]\.txt$')
 [[ $finished -ge 2 && $finished -lt 14 ]] || fail "kill and resume: $finished of 14 items checkpointed at the kill; expected 2 to 13"
 [[ -e "$work/band-killed/summary.json" ]] && fail "kill and resume: a killed run wrote summary.json"
@@ -169,10 +162,4 @@ for name, p in r.get("prescriptions", {}).items():
 sys.exit(1 if bad else 0)
 PY
 
-python3 "$src/tests/cli/scan_non_finite.py" "$work" --skip err --skip out || failures=$((failures + 1))
-
-if ((failures > 0)); then
-  echo "$failures failure(s)"
-  exit 1
-fi
-echo "all run checks passed"
+finish "ember run"
