@@ -7,8 +7,8 @@
 #include <iterator>
 
 #include "ember/core/errors.hpp"
+#include "ember/pipeline/job.hpp"
 #include "ember/population/counts.hpp"
-#include "ember/scenario/job.hpp"
 #include "ember/scenario/load.hpp"
 #include "ember/units/constants.hpp"
 #include "support.hpp"
@@ -177,7 +177,7 @@ TEST_CASE("a stable potential gives no constraint, and says so") {
       "standard_model: {top_mass: 168 GeV}\ntunnelling: {prescriptions: [probe_field, hot_bubble]}\n"
       "scan: {masses: {from: 1 g, to: 1e12 g, points: 4}}\n",
       "stable.yaml", ".");
-  const scenario::JobResults r = scenario::run_job(loaded.scenario);
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
   CHECK(r.no_constraint);
   CHECK(r.no_constraint_reason.find("stable") != std::string::npos);
   for (const auto& o : r.outcomes) {
@@ -197,16 +197,16 @@ TEST_CASE("results do not depend on the thread count") {
   // And the chunks of formation masses the work is shared out in (one row each, against the
   // default): a division of work only, so the same bits (derived).
   // With max_chunks = 1 the bound wins over rows_per_chunk: one chunk per table.
-  scenario::JobOptions one, two, fine, bounded;
+  pipeline::JobOptions one, two, fine, bounded;
   one.threads = 1;
   two.threads = 2;
   fine.threads = 2;
   fine.rows_per_chunk = 1;
   bounded.rows_per_chunk = 1;
   bounded.max_chunks = 1;
-  const scenario::JobResults a = scenario::run_job(loaded.scenario, one);
+  const pipeline::JobResults a = pipeline::run_job(loaded.scenario, one);
   for (const auto* options : {&two, &fine, &bounded}) {
-    const scenario::JobResults b = scenario::run_job(loaded.scenario, *options);
+    const pipeline::JobResults b = pipeline::run_job(loaded.scenario, *options);
     REQUIRE(a.outcomes.size() == b.outcomes.size());
     for (std::size_t k = 0; k < a.outcomes.size(); ++k) {
       CHECK(a.outcomes[k].counts.lightcone == b.outcomes[k].counts.lightcone);  // bit for bit
@@ -233,14 +233,14 @@ TEST_CASE("checkpoint files stay bounded however fine the grid, and a rerun resu
       "many_rows.yaml", ".");
   const auto dir = std::filesystem::temp_directory_path() / ("ember-checkpoint-bound-" + std::to_string(::getpid()));
   std::filesystem::remove_all(dir);
-  scenario::JobOptions o;
+  pipeline::JobOptions o;
   o.table_points = 8;  // bookkeeping only: the table's accuracy is not what is tested
-  o.checkpoint = scenario::CheckpointOptions{dir, "bound test", false};
-  const scenario::JobResults first = scenario::run_job(loaded.scenario, o);
+  o.checkpoint = pipeline::CheckpointOptions{dir, "bound test", false};
+  const pipeline::JobResults first = pipeline::run_job(loaded.scenario, o);
   const auto files = static_cast<int>(std::distance(std::filesystem::directory_iterator(dir), {}));
   CHECK(files == 1 + 1 + o.max_chunks);
-  const scenario::JobResults again = scenario::run_job(loaded.scenario, o);
-  CHECK(again.units_resumed == 1 + o.max_chunks);
+  const pipeline::JobResults again = pipeline::run_job(loaded.scenario, o);
+  CHECK(again.items_resumed == 1 + o.max_chunks);
   REQUIRE(first.outcomes.at(0).curve.size() == 3000);
   for (std::size_t r = 0; r < 3000; ++r)
     CHECK(first.outcomes[0].curve[r].beta_max == again.outcomes[0].curve[r].beta_max);
@@ -265,7 +265,7 @@ scan:
     lambda6: [3.0]
 )",
                                                    "band.yaml", ".");
-  const scenario::JobResults r = scenario::run_job(loaded.scenario);
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
   // The central point, then 3 top masses x {0, 3} for lambda6 less the central one: 6 points.
   REQUIRE(r.band.size() == 6);
   int stable = 0, with_lambda6 = 0;
@@ -308,13 +308,13 @@ TEST_CASE("a failed point is recorded with its reason, and the rest of the scan 
   loaded.scenario.scan.band.alpha_s.points = 1;
   loaded.scenario.scan.band.lambda6.clear();
   loaded.scenario.tunnelling.prescriptions = {tunnelling::Prescription::probe_field};
-  scenario::JobOptions plain, failing;
+  pipeline::JobOptions plain, failing;
   failing.before_row = [](std::size_t point, std::size_t, std::size_t row) {
     if (point == 1 && row == 1) throw ember::NumericalError("test solver", "injected at row 1 of point 1");
     if (point == 0 && row == 3) throw ember::NumericalError("test solver", "injected in the central counts");
   };
-  const scenario::JobResults a = scenario::run_job(loaded.scenario, plain);
-  const scenario::JobResults b = scenario::run_job(loaded.scenario, failing);
+  const pipeline::JobResults a = pipeline::run_job(loaded.scenario, plain);
+  const pipeline::JobResults b = pipeline::run_job(loaded.scenario, failing);
   CHECK(a.failures.empty());
   REQUIRE(b.failures.size() == 2);
   // In scan order: the central point's unit, then point 1's row 1.
@@ -348,7 +348,7 @@ TEST_CASE("a failed point is recorded with its reason, and the rest of the scan 
 TEST_CASE("the job runs end to end on the demo with a reduced grid") {
   auto loaded = scenario::load_scenario_file(source_dir / "configs/demo.yaml");
   loaded.scenario.scan.masses.points = 4;
-  const scenario::JobResults r = scenario::run_job(loaded.scenario);
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
   REQUIRE(r.outcomes.size() == 4);
   for (const auto& o : r.outcomes) {
     CAPTURE(tunnelling::name_of(o.prescription));

@@ -46,8 +46,8 @@ TEST_CASE("every variant reads into its typed form") {
     const auto s = load_scenario_file(source_dir / "tests/data/good/polynomial_potential.yaml").scenario;
     REQUIRE(std::holds_alternative<CriticalCollapse>(s.population.spectrum));
     CHECK(std::get<CriticalCollapse>(s.population.spectrum).exponent == 2.85);
-    REQUIRE(std::holds_alternative<PolynomialPotential>(s.standard_model.potential));
-    const auto& p = std::get<PolynomialPotential>(s.standard_model.potential);
+    REQUIRE(std::holds_alternative<PolynomialForm>(s.standard_model.potential));
+    const auto& p = std::get<PolynomialForm>(s.standard_model.potential);
     CHECK(p.scale == 1e10);
     CHECK(p.coefficients == std::vector<double>{0, 0, 0.5, 0, -0.01});
     CHECK(s.tunnelling.prescriptions == std::vector{Prescription::thin_wall, Prescription::no_seed});

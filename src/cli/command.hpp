@@ -8,7 +8,7 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
-#include "ember/scenario/executor.hpp"
+#include "ember/pipeline/executor.hpp"
 #include "ember/units/quantity.hpp"
 
 namespace ember::cli {
@@ -27,7 +27,7 @@ Command add_higgs(CLI::App& parent);
 Command add_bounce(CLI::App& parent);
 // Makes the executor `ember run` computes its units with, from the thread count; empty: threads
 // on this machine. ember-mpi passes one for MPI ranks.
-using ExecutorFactory = std::function<std::unique_ptr<scenario::Executor>(int threads)>;
+using ExecutorFactory = std::function<std::unique_ptr<pipeline::Executor>(int threads)>;
 Command add_run(CLI::App& parent, ExecutorFactory factory);
 
 // A quantity given on the command line, in internal units; errors name the option.

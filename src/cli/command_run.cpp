@@ -5,72 +5,75 @@
 #include <iostream>
 
 #include "command.hpp"
-#include "ember/core/cache.hpp"
 #include "ember/core/errors.hpp"
-#include "ember/core/output_set.hpp"
 #include "ember/core/parallel.hpp"
+#include "ember/pipeline/run.hpp"
 #include "ember/report/outputs.hpp"
-#include "ember/scenario/job.hpp"
 
 namespace ember::cli {
 
 namespace {
 
-struct RunOptions {
+struct RunArguments {
   std::string scenario, output, cache_dir, checkpoint;
   bool json = false, no_plots = false, quiet = false, no_cache = false, restart = false;
   int threads = default_threads();
 };
 
-int run(const RunOptions& o, const ExecutorFactory& factory) {
+// Where the tables came from, and what could not be kept, on stderr: not results, and the
+// outputs do not depend on them. Warnings show even with --quiet: the next run would rebuild or
+// lose what this one could not keep.
+void print_notes(const pipeline::ScenarioRun& run, bool quiet) {
+  const pipeline::JobResults& r = run.results;
+  if (!quiet && (r.tables_built + r.tables_from_cache) > 0)
+    std::cerr << fmt::format("ember: B(M) tables: {} from the cache{}, {} built\n", r.tables_from_cache,
+                             run.cache_directory ? " in " + run.cache_directory->string() : std::string(" (off)"),
+                             r.tables_built);
+  if (r.cache_warning)
+    std::cerr << fmt::format("ember: warning: {}; the tables built here will be built again next time\n",
+                             *r.cache_warning);
+  if (r.checkpoint_warning) std::cerr << fmt::format("ember: warning: {}\n", *r.checkpoint_warning);
+  if (!quiet && r.greybody_from_cache)
+    std::cerr << fmt::format("ember: greybody table: {}\n", *r.greybody_from_cache ? "from the cache" : "built");
+  if (!quiet && r.items_resumed > 0)
+    std::cerr << fmt::format("ember: resumed {} finished work items (tables and chunks) from {}\n", r.items_resumed,
+                             run.checkpoint.string());
+}
+
+// The results, written whole; then the checkpoint has served its purpose. If they cannot be
+// written the work is not lost: a rerun once there is room resumes from the checkpoint.
+report::Written write_results(const scenario::LoadedScenario& loaded, const pipeline::ScenarioRun& run,
+                              const std::filesystem::path& out, bool plots) {
+  try {
+    const report::Written written = report::write_outputs(loaded, run.results, out, plots);
+    pipeline::discard_checkpoint(run);
+    return written;
+  } catch (const OutputError& e) {
+    std::error_code ec;
+    if (!std::filesystem::exists(run.checkpoint / "job.identity", ec)) throw;
+    throw OutputError(fmt::format("{}; the finished work is kept in {}, and rerunning the same command resumes from it",
+                                  e.what(), run.checkpoint.string()));
+  }
+}
+
+int run(const RunArguments& o, const ExecutorFactory& factory) {
   const scenario::LoadedScenario loaded = scenario::load_scenario_file(o.scenario);  // input, validated whole
   const std::filesystem::path out =
       o.output.empty() ? loaded.scenario.output.directory : std::filesystem::path(o.output);
-  check_results_folder(out);  // before the computation, not after
-  scenario::JobOptions job;
-  job.threads = o.threads;
-  job.quiet = o.quiet;
-  const std::unique_ptr<scenario::Executor> executor = factory ? factory(o.threads) : nullptr;
-  job.executor = executor.get();
-  if (!o.no_cache) job.cache_directory = o.cache_dir.empty() ? default_cache_directory() : o.cache_dir;
-  // Resuming is the default: a rerun of the same command picks up the units a killed run finished.
-  const std::filesystem::path checkpoint =
-      o.checkpoint.empty() ? out / ".ember-checkpoint" : std::filesystem::path(o.checkpoint);
-  job.checkpoint = scenario::CheckpointOptions{
-      checkpoint, fmt::format("scenario {}\n{}", report::scenario_hash(loaded), scenario::job_identity(job)),
-      o.restart};
-  const scenario::JobResults results = scenario::run_job(loaded.scenario, job);  // cosmology, evaporation,
-                                                                                 // higgs, tunnelling, population
+  const std::unique_ptr<pipeline::Executor> executor = factory ? factory(o.threads) : nullptr;
+  pipeline::RunSettings settings;
+  settings.threads = o.threads;
+  settings.quiet = o.quiet;
+  settings.use_cache = !o.no_cache;
+  if (!o.cache_dir.empty()) settings.cache_directory = o.cache_dir;
+  if (!o.checkpoint.empty()) settings.checkpoint = o.checkpoint;
+  settings.restart = o.restart;
+  settings.executor = executor.get();
+  const pipeline::ScenarioRun run = pipeline::run_scenario(loaded, out, settings);
+  const pipeline::JobResults& results = run.results;
   if (!results.assembled) return exit_ok;  // an MPI rank that only computed: rank 0 writes
-  // Where the B(M) tables came from goes to stderr: it is not a result, and outputs do not depend on it.
-  if (!o.quiet && (results.tables_built + results.tables_from_cache) > 0)
-    std::cerr << fmt::format("ember: B(M) tables: {} from the cache{}, {} built\n", results.tables_from_cache,
-                             job.cache_directory ? " in " + job.cache_directory->string() : std::string(" (off)"),
-                             results.tables_built);
-  // Shown even with --quiet: the next run will rebuild what this one could not keep.
-  if (results.cache_warning)
-    std::cerr << fmt::format("ember: warning: {}; the tables built here will be built again next time\n",
-                             *results.cache_warning);
-  if (results.checkpoint_warning) std::cerr << fmt::format("ember: warning: {}\n", *results.checkpoint_warning);
-  if (!o.quiet && results.greybody_from_cache)
-    std::cerr << fmt::format("ember: greybody table: {}\n", *results.greybody_from_cache ? "from the cache" : "built");
-  if (!o.quiet && results.units_resumed > 0)
-    std::cerr << fmt::format("ember: resumed {} finished units (tables and chunks) from {}\n", results.units_resumed,
-                             checkpoint.string());
-  const report::Written written = [&] {
-    try {
-      return report::write_outputs(loaded, results, out, !o.no_plots);
-    } catch (const OutputError& e) {
-      // The work is not lost: a rerun once there is room resumes from the checkpoint.
-      std::error_code ec;
-      if (!std::filesystem::exists(checkpoint / "job.identity", ec)) throw;
-      throw OutputError(
-          fmt::format("{}; the finished work is kept in {}, and rerunning the same command resumes "
-                      "from it",
-                      e.what(), checkpoint.string()));
-    }
-  }();
-  scenario::Checkpoint::remove_folder(checkpoint);  // the outputs are whole: nothing left to resume
+  print_notes(run, o.quiet);
+  const report::Written written = write_results(loaded, run, out, !o.no_plots);
   if (o.json) {
     auto j = report::summary_json(loaded, results);
     j["output_directory"] = out.string();
@@ -97,7 +100,7 @@ int run(const RunOptions& o, const ExecutorFactory& factory) {
 }  // namespace
 
 Command add_run(CLI::App& parent, ExecutorFactory factory) {
-  auto o = std::make_shared<RunOptions>();
+  auto o = std::make_shared<RunArguments>();
   CLI::App* app = parent.add_subcommand(
       "run",
       "The main job: decay counts in our past light cone and constraint curves for a PBH scenario, per rate "

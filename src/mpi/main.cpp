@@ -37,12 +37,12 @@ int main(int argc, char** argv) {
   MPI_Comm_rank(MPI_COMM_WORLD, &rank);
   const int error_fd = rank == 0 ? 2 : silence_output();
   std::shared_ptr<ember::mpi::MpiExecutor> executor;
-  const ember::cli::ExecutorFactory factory = [&](int threads) -> std::unique_ptr<ember::scenario::Executor> {
+  const ember::cli::ExecutorFactory factory = [&](int threads) -> std::unique_ptr<ember::pipeline::Executor> {
     executor = std::make_shared<ember::mpi::MpiExecutor>(MPI_COMM_WORLD, threads, error_fd);
-    struct Shared final : ember::scenario::Executor {  // ember run owns this; the executor outlives it
+    struct Shared final : ember::pipeline::Executor {  // ember run owns this; the executor outlives it
       std::shared_ptr<ember::mpi::MpiExecutor> e;
-      void run(const std::vector<std::size_t>& p, const ember::scenario::UnitWork& w,
-               const ember::scenario::UnitDone& d) const override {
+      void run(const std::vector<std::size_t>& p, const ember::pipeline::ItemWork& w,
+               const ember::pipeline::ItemDone& d) const override {
         e->run(p, w, d);
       }
       std::vector<std::string> share(std::vector<std::string> texts) const override {

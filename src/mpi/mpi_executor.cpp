@@ -81,8 +81,8 @@ void MpiExecutor::abort_with(int code, const std::string& message) const {
   std::abort();  // not reached
 }
 
-void MpiExecutor::run(const std::vector<std::size_t>& pending, const scenario::UnitWork& work,
-                      const scenario::UnitDone& done) const {
+void MpiExecutor::run(const std::vector<std::size_t>& pending, const pipeline::ItemWork& work,
+                      const pipeline::ItemDone& done) const {
   if (const int code = start(0); code != 0) {
     cancelled_ = code;
     throw Cancelled(code);
@@ -114,7 +114,7 @@ void MpiExecutor::run(const std::vector<std::size_t>& pending, const scenario::U
 }
 
 // Rank 0: the queue of units, local threads fed first-come, remote ranks served on request.
-void MpiExecutor::coordinate(const std::vector<std::size_t>& pending, const scenario::UnitDone& done,
+void MpiExecutor::coordinate(const std::vector<std::size_t>& pending, const pipeline::ItemDone& done,
                              WorkFeed& feed) const {
   std::deque<std::size_t> queue(pending.begin(), pending.end());
   std::size_t received = 0;

@@ -13,15 +13,15 @@
 #include <optional>
 #include <string>
 
-#include "ember/scenario/executor.hpp"
+#include "ember/pipeline/executor.hpp"
 
 namespace ember::mpi {
 
-class MpiExecutor final : public scenario::Executor {
+class MpiExecutor final : public pipeline::Executor {
  public:
   MpiExecutor(MPI_Comm comm, int threads, int error_fd);
-  void run(const std::vector<std::size_t>& pending, const scenario::UnitWork& work,
-           const scenario::UnitDone& done) const override;
+  void run(const std::vector<std::size_t>& pending, const pipeline::ItemWork& work,
+           const pipeline::ItemDone& done) const override;
   // Rank 0's texts to every rank (three broadcasts: the count, the sizes, the bytes).
   std::vector<std::string> share(std::vector<std::string> texts) const override;
   bool assembles() const override { return rank_ == 0; }
@@ -34,7 +34,7 @@ class MpiExecutor final : public scenario::Executor {
   std::optional<int> cancelled() const { return cancelled_; }
 
  private:
-  void coordinate(const std::vector<std::size_t>& pending, const scenario::UnitDone& done, class WorkFeed& feed) const;
+  void coordinate(const std::vector<std::size_t>& pending, const pipeline::ItemDone& done, class WorkFeed& feed) const;
   void serve(class WorkFeed& feed) const;
   [[noreturn]] void abort_with(int code, const std::string& message) const;
   MPI_Comm comm_;

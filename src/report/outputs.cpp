@@ -18,10 +18,6 @@
 
 namespace ember::report {
 
-std::string scenario_hash(const scenario::LoadedScenario& l) {
-  return fingerprint(YAML::Dump(l.resolved));
-}
-
 namespace {
 
 namespace u = ember::units;
@@ -37,9 +33,9 @@ std::string cell(std::optional<double> v) {
 
 std::string csv_header(const scenario::LoadedScenario& l, const std::string& what,
                        const std::vector<std::string>& notes) {
-  std::string out =
-      fmt::format("# Ember {}: {}\n# scenario {} (hash {}), ember {}\n", what,
-                  l.scenario.title.empty() ? l.source : l.scenario.title, l.source, scenario_hash(l), version);
+  std::string out = fmt::format("# Ember {}: {}\n# scenario {} (hash {}), ember {}\n", what,
+                                l.scenario.title.empty() ? l.source : l.scenario.title, l.source,
+                                scenario::scenario_hash(l), version);
   for (const auto& n : notes) out += "# " + n + "\n";
   return out;
 }
@@ -59,7 +55,7 @@ struct Tightest {
   double mass = 0, beta = 0, f = 0;
   bool found = false;
 };
-Tightest tightest(const scenario::JobResults& r) {
+Tightest tightest(const pipeline::JobResults& r) {
   Tightest t;
   for (const auto& o : r.outcomes)
     for (const auto& row : o.curve)
@@ -69,7 +65,7 @@ Tightest tightest(const scenario::JobResults& r) {
   return t;
 }
 
-std::string constraint_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   const bool mono = std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum);
   std::string out = csv_header(
       l, "constraint curves",
@@ -104,7 +100,7 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const scenario::Jo
   return out;
 }
 
-std::string decay_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   std::string out =
       csv_header(l, "decay along each mass-loss history",
                  {"units: masses in g, times in s (since the big bang)",
@@ -137,7 +133,7 @@ std::string decay_csv(const scenario::LoadedScenario& l, const scenario::JobResu
   return out;
 }
 
-std::string rates_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+std::string rates_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   std::string out = csv_header(l, "decay against evaporation",
                                {"units: seed mass in g and Planck masses; ratio = Gamma_D / Gamma_H"});
   out += "seed_mass_g,seed_mass_Mpl";
@@ -151,7 +147,7 @@ std::string rates_csv(const scenario::LoadedScenario& l, const scenario::JobResu
   return out;
 }
 
-std::string potential_csv(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+std::string potential_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   std::string out = csv_header(l, "Higgs potential",
                                {"units: h in GeV; lambda is the running MS-bar coupling at mu = h, "
                                 "lambda_eff = e^{4 Gamma} lambda the quartic in the potential"});
@@ -178,11 +174,11 @@ std::vector<std::string> cautions(const scenario::Scenario& s) {
       "The constraint disappears if new physics stabilises the Higgs potential."};
 }
 
-ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   ordered_json j;
   j["ember_version"] = version;
   j["scenario_file"] = l.source;
-  j["scenario_hash"] = scenario_hash(l);
+  j["scenario_hash"] = scenario::scenario_hash(l);
   j["title"] = l.scenario.title;
   j["scenario"] = scenario::resolved_json(l.resolved);
   j["cautions"] = cautions(l.scenario);
@@ -252,11 +248,11 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const scenario::Job
   return j;
 }
 
-std::string summary_text(const scenario::LoadedScenario& l, const scenario::JobResults& r) {
+std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   std::string t =
       fmt::format("Ember run: {}\n  scenario {} (hash {})\n  population: {}\n  potential: {}\n  greybody table: {}\n",
-                  l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, scenario_hash(l), r.spectrum,
-                  r.potential, r.greybody);
+                  l.scenario.title.empty() ? "(untitled)" : l.scenario.title, l.source, scenario::scenario_hash(l),
+                  r.spectrum, r.potential, r.greybody);
   if (r.stability)
     t += fmt::format("  Higgs vacuum: {}{}; unseeded decays expected in the past light cone: log10 N = {}\n",
                      higgs::name_of(r.stability->verdict),
@@ -314,7 +310,7 @@ std::string draw_plots(const scenario::Scenario& s, const std::filesystem::path&
 
 }  // namespace
 
-Written write_outputs(const scenario::LoadedScenario& l, const scenario::JobResults& r,
+Written write_outputs(const scenario::LoadedScenario& l, const pipeline::JobResults& r,
                       const std::filesystem::path& dir, bool plots) {
   Written w;
   const scenario::Scenario& s = l.scenario;

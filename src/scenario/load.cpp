@@ -7,6 +7,7 @@
 #include <sstream>
 
 #include "document_guards.hpp"
+#include "ember/core/hash.hpp"
 #include "ember/core/input_file.hpp"
 #include "ember/core/text.hpp"
 #include "ember/cosmology/degrees_of_freedom.hpp"
@@ -56,7 +57,7 @@ void check_tables(const YAML::Node& document, const Scenario& s, const std::stri
   if (const auto* t = std::get_if<TabulatedSpectrum>(&s.population.spectrum))
     attempt({"population", "spectrum", "file"}, "population.spectrum.file",
             [&] { (void)population::tabulated(t->file.string(), t->mass_unit); });
-  if (const auto* t = std::get_if<TabulatedPotential>(&s.standard_model.potential))
+  if (const auto* t = std::get_if<TabulatedForm>(&s.standard_model.potential))
     attempt({"standard_model", "potential", "file"}, "standard_model.potential.file",
             [&] { (void)higgs::TabulatedPotential(t->file); });
   if (s.dof_table)
@@ -151,6 +152,10 @@ nlohmann::ordered_json tree_json(const Key& spec, const YAML::Node& node) {
 
 nlohmann::ordered_json resolved_json(const YAML::Node& resolved) {
   return tree_json(scenario_schema(), resolved);
+}
+
+std::string scenario_hash(const LoadedScenario& l) {
+  return fingerprint(YAML::Dump(l.resolved));
 }
 
 }  // namespace ember::scenario

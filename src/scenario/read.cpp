@@ -51,8 +51,8 @@ Abundance read_abundance(const YAML::Node& n) {
 
 PotentialForm read_potential(const YAML::Node& n) {
   const std::string form = n["form"].Scalar();
-  if (form == "polynomial") return PolynomialPotential{qty(n["scale"], units::energy), numbers(n["coefficients"])};
-  if (form == "table") return TabulatedPotential{n["file"].Scalar()};
+  if (form == "polynomial") return PolynomialForm{qty(n["scale"], units::energy), numbers(n["coefficients"])};
+  if (form == "table") return TabulatedForm{n["file"].Scalar()};
   return StandardModelForm{{n["coleman_weinberg"].Scalar() == "true", num(n["lambda6"]), num(n["lambda8"])}};
 }
 

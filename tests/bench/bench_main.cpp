@@ -14,8 +14,8 @@
 #include "ember/greybody/solver.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/higgs/stability.hpp"
+#include "ember/pipeline/job.hpp"
 #include "ember/population/counts.hpp"
-#include "ember/scenario/job.hpp"
 #include "ember/scenario/load.hpp"
 #include "ember/tunnelling/action_table.hpp"
 #include "ember/units/constants.hpp"
@@ -148,7 +148,7 @@ int main() {
       "scan: {masses: {from: 1 g, to: 1e15 g, points: 100}}\n";
   const auto curve_scenario = ember::scenario::load_scenario_text(curve, "bench-curve.yaml", ".");
   report("run: 100-mass x 3-prescription constraint curve", 1,
-         [&] { sink = sink + ember::scenario::run_job(curve_scenario.scenario).seconds; });
+         [&] { sink = sink + ember::pipeline::run_job(curve_scenario.scenario).seconds; });
   const std::string band =
       "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-70}\n"
       "tunnelling: {prescriptions: [probe_field]}\n"
@@ -156,7 +156,7 @@ int main() {
       "  band: {top_mass: {points: 5}, higgs_mass: {points: 5}, alpha_s: {points: 3}}\n";
   const auto band_scenario = ember::scenario::load_scenario_text(band, "bench-band.yaml", ".");
   report("run: 5 x 5 x 3 Higgs-input band (probe_field, 20 masses)", 1,
-         [&] { sink = sink + ember::scenario::run_job(band_scenario.scenario).seconds; });
+         [&] { sink = sink + ember::pipeline::run_job(band_scenario.scenario).seconds; });
   // Band points against the yardstick, both in CPU seconds of this run. A band point is what the
   // main job does per Higgs-input point and prescription: the running, the potential and its
   // verdict, and a B(M) table with the job's options (JobOptions: 30 nodes, a check every 6).

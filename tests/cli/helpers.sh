@@ -20,17 +20,17 @@ stdout_has() { grep -qF -- "$2" "$work/out" || fail "$1: stdout lacks '$2'"; }
 stderr_has() { grep -qF -- "$2" "$work/err" || fail "$1: stderr lacks '$2'"; }
 stdout_empty() { [[ ! -s "$work/out" ]] || fail "$1: stdout should be empty: $(head -c 200 "$work/out")"; }
 # kill_when_checkpointed PID FOLDER COUNT: SIGKILL (nothing caught) the run PID once FOLDER holds
-# COUNT checkpointed units, or when it ends first; sets $checkpointed to how many it held then.
+# COUNT checkpointed items, or when it ends first; sets $checkpointed to how many it held then.
 kill_when_checkpointed() {
   local victim=$1 folder=$2 count=$3
   for _ in $(seq 1 1200); do
-    [[ $(ls "$folder" 2>/dev/null | grep -c '^unit-') -ge $count ]] && break
+    [[ $(ls "$folder" 2>/dev/null | grep -c '^item-') -ge $count ]] && break
     kill -0 "$victim" 2>/dev/null || break
     sleep 0.05
   done
   kill -9 "$victim" 2>/dev/null
   wait "$victim" 2>/dev/null
-  checkpointed=$(ls "$folder" 2>/dev/null | grep -c '^unit-')
+  checkpointed=$(ls "$folder" 2>/dev/null | grep -c '^item-')
 }
 # finish WHAT: scans the work folder for NaN and inf (err and out are captured messages, which
 # quote the user's own bad input), then reports and exits.

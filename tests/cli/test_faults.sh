@@ -39,7 +39,7 @@ run "disk full" 4 -- "$ember" run "$work/grid400.yaml" -o "$work/full/out" --no-
 stderr_has "disk full" "$work/full/out: cannot write the results"
 stderr_has "disk full" "No space left on device"
 stderr_has "disk full" "rerunning the same command resumes"
-grep -q '\.ember-staging\|unit-[0-9]' "$work/err" && fail "disk full: the message names an internal file"
+grep -q '\.ember-staging\|item-[0-9]' "$work/err" && fail "disk full: the message names an internal file"
 [[ "$(entries "$work/full/out")" == ".ember-checkpoint" ]] ||
   fail "disk full: expected only the checkpoint in the folder, found: $(entries "$work/full/out" | tr '\n' ' ')"
 mount -o remount,size=1m "$work/full" || fail "disk full: cannot grow the tmpfs"

@@ -16,7 +16,7 @@ kill_when_checkpointed $! "$work/killed/.ember-checkpoint" 20
 files=$checkpointed
 [[ $files -ge 20 ]] || fail "grid of 1e5: only $files checkpoint files at the kill"
 run "grid of 1e5 resumed" 0 -- "$ember" run "$grid" -o "$work/killed" --no-plots
-stderr_has "grid of 1e5 resumed" "resumed $files finished units"
+stderr_has "grid of 1e5 resumed" "resumed $files finished work items"
 for f in constraint.csv decay.csv rates.csv potential.csv resolved.yaml; do
   cmp -s "$work/whole/$f" "$work/killed/$f" || fail "grid of 1e5: $f differs after the resume"
 done

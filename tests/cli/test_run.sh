@@ -105,11 +105,11 @@ run "band uninterrupted" 0 -- "$ember" run "$work/band.yaml" -o "$work/band-whol
 "$ember" run "$work/band.yaml" -o "$work/band-killed" --no-plots --quiet --no-cache --threads 1 >/dev/null 2>&1 &
 kill_when_checkpointed $! "$work/band-killed/.ember-checkpoint" 2
 finished=$checkpointed
-tables_done=$(ls "$work/band-killed/.ember-checkpoint" 2>/dev/null | grep -c '^unit-00000[0-6]\.txt$')
+tables_done=$(ls "$work/band-killed/.ember-checkpoint" 2>/dev/null | grep -c '^item-00000[0-6]\.txt$')
 [[ $finished -ge 2 && $finished -lt 14 ]] || fail "kill and resume: $finished of 14 items checkpointed at the kill; expected 2 to 13"
 [[ -e "$work/band-killed/summary.json" ]] && fail "kill and resume: a killed run wrote summary.json"
 run "band resumed" 0 -- "$ember" run "$work/band.yaml" -o "$work/band-killed" --no-plots --no-cache --threads 1
-stderr_has "band resumed" "resumed $finished finished units"
+stderr_has "band resumed" "resumed $finished finished work items"
 stderr_has "band resumed" "0 from the cache (off), $((7 - tables_done)) built"
 for f in constraint.csv decay.csv rates.csv potential.csv resolved.yaml; do
   cmp -s "$work/band-whole/$f" "$work/band-killed/$f" || fail "kill and resume: $f differs from the uninterrupted run"

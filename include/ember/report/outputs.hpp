@@ -9,13 +9,10 @@
 #include <string>
 #include <vector>
 
-#include "ember/scenario/job.hpp"
+#include "ember/pipeline/job.hpp"
 #include "ember/scenario/load.hpp"
 
 namespace ember::report {
-
-// The fingerprint of the resolved scenario that every output file names.
-std::string scenario_hash(const scenario::LoadedScenario& loaded);
 
 // The cautions every summary states.
 std::vector<std::string> cautions(const scenario::Scenario& s);
@@ -25,12 +22,12 @@ struct Written {
   std::string plots_note;  // why plots were or were not made
 };
 
-Written write_outputs(const scenario::LoadedScenario& loaded, const scenario::JobResults& results,
+Written write_outputs(const scenario::LoadedScenario& loaded, const pipeline::JobResults& results,
                       const std::filesystem::path& directory, bool plots);
 
-nlohmann::ordered_json summary_json(const scenario::LoadedScenario& loaded, const scenario::JobResults& results);
+nlohmann::ordered_json summary_json(const scenario::LoadedScenario& loaded, const pipeline::JobResults& results);
 
 // The short human summary for the terminal.
-std::string summary_text(const scenario::LoadedScenario& loaded, const scenario::JobResults& results);
+std::string summary_text(const scenario::LoadedScenario& loaded, const pipeline::JobResults& results);
 
 }  // namespace ember::report

@@ -27,6 +27,9 @@ LoadedScenario load_scenario_file(const std::filesystem::path& file);
 // The same, from text; `label` names it in diagnostics, relative input paths start at `base`.
 LoadedScenario load_scenario_text(std::string_view text, const std::string& label, const std::filesystem::path& base);
 
+// The fingerprint of the resolved scenario: what every output file and checkpoint names.
+std::string scenario_hash(const LoadedScenario& loaded);
+
 // The resolved scenario as YAML, loadable again to the same result.
 std::string resolved_yaml(const LoadedScenario& loaded);
 

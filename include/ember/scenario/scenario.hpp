@@ -14,6 +14,7 @@
 #include "ember/evaporation/trajectory.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/higgs/potential.hpp"
+#include "ember/population/counts.hpp"
 #include "ember/tunnelling/rate.hpp"
 
 namespace ember::scenario {
@@ -40,7 +41,7 @@ struct TabulatedSpectrum {
 };
 using Spectrum = std::variant<Monochromatic, Lognormal, PowerLaw, CriticalCollapse, TabulatedSpectrum>;
 
-enum class AbundanceMeasure { beta, f_pbh, lightcone_count };
+using population::AbundanceMeasure;  // beta, f_pbh or lightcone_count
 struct Abundance {
   AbundanceMeasure measure;
   double value;
@@ -56,14 +57,14 @@ struct Population {
 struct StandardModelForm {
   higgs::StandardModelOptions options;  // Coleman-Weinberg terms, lambda6, lambda8
 };
-struct PolynomialPotential {
+struct PolynomialForm {
   double scale;                      // GeV
   std::vector<double> coefficients;  // dimensionless, lowest power first
 };
-struct TabulatedPotential {
+struct TabulatedForm {
   std::filesystem::path file;
 };
-using PotentialForm = std::variant<StandardModelForm, PolynomialPotential, TabulatedPotential>;
+using PotentialForm = std::variant<StandardModelForm, PolynomialForm, TabulatedForm>;  // the higgs module builds each
 
 struct StandardModelInputs {
   higgs::Inputs inputs;  // M_t, M_h, M_W (GeV), alpha_s(M_Z), loop order

@@ -1,11 +1,11 @@
-#include "ember/scenario/unit_result.hpp"
+#include "ember/pipeline/item_records.hpp"
 
 #include <fmt/format.h>
 
 #include "ember/core/errors.hpp"
 #include "ember/core/record.hpp"
 
-namespace ember::scenario {
+namespace ember::pipeline {
 
 namespace {
 
@@ -51,9 +51,9 @@ population::Response read_response(RecordReader& in) {
 
 }  // namespace
 
-std::string to_text(const UnitResult& u) {
+std::string to_text(const ItemResult& u) {
   RecordWriter w;
-  w.word("ember-unit").whole(2).end_line();
+  w.word("ember-item").whole(2).end_line();
   w.word("rows").whole(static_cast<long long>(u.beta_max.size()));
   for (std::size_t i = 0; i < u.beta_max.size(); ++i) w.maybe_real(u.beta_max[i]).maybe_real(u.f_max[i]);
   w.end_line();
@@ -72,10 +72,10 @@ std::string to_text(const UnitResult& u) {
   return w.str();
 }
 
-UnitResult unit_from_text(const std::string& text, const std::string& what) {
+ItemResult item_from_text(const std::string& text, const std::string& what) {
   RecordReader in(text, what);
-  UnitResult u;
-  in.expect("ember-unit");
+  ItemResult u;
+  in.expect("ember-item");
   in.expect("2");
   in.expect("rows");
   const long long rows = in.whole();
@@ -102,10 +102,10 @@ UnitResult unit_from_text(const std::string& text, const std::string& what) {
   return u;
 }
 
-std::string to_text(const TableResult& t) {
+std::string to_text(const TableRecord& t) {
   RecordWriter w;
-  const char* state = t.state == TableResult::State::table    ? "table"
-                      : t.state == TableResult::State::failed ? "failed"
+  const char* state = t.state == TableRecord::State::table    ? "table"
+                      : t.state == TableRecord::State::failed ? "failed"
                                                               : "none";
   w.word("ember-table").whole(2).word(state).word(!t.cache_hit ? "-" : *t.cache_hit ? "1" : "0").end_line();
   w.text_line("failure", t.failure);
@@ -113,7 +113,7 @@ std::string to_text(const TableResult& t) {
   return w.str() + t.table;  // the table's own text, to the end
 }
 
-TableResult table_from_text(const std::string& text, const std::string& what) {
+TableRecord table_from_text(const std::string& text, const std::string& what) {
   std::size_t end = 0;  // past the three header lines
   for (int line = 0; line < 3 && end != std::string::npos; ++line) {
     end = text.find('\n', end);
@@ -121,16 +121,16 @@ TableResult table_from_text(const std::string& text, const std::string& what) {
   }
   if (end == std::string::npos) throw InputError(what + ": a table record needs three header lines");
   RecordReader in(text.substr(0, end), what);
-  TableResult t;
+  TableRecord t;
   in.expect("ember-table");
   in.expect("2");
   const std::string state = in.word();
   if (state == "table")
-    t.state = TableResult::State::table;
+    t.state = TableRecord::State::table;
   else if (state == "failed")
-    t.state = TableResult::State::failed;
+    t.state = TableRecord::State::failed;
   else if (state == "none")
-    t.state = TableResult::State::no_decay;
+    t.state = TableRecord::State::no_decay;
   else
     throw InputError(fmt::format("{}: table state \"{}\"; expected table, failed or none", what, state));
   const std::string cache = in.word();
@@ -141,4 +141,4 @@ TableResult table_from_text(const std::string& text, const std::string& what) {
   return t;
 }
 
-}  // namespace ember::scenario
+}  // namespace ember::pipeline

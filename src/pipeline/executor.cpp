@@ -1,12 +1,12 @@
-#include "ember/scenario/executor.hpp"
+#include "ember/pipeline/executor.hpp"
 
 #include <mutex>
 
 #include "ember/core/parallel.hpp"
 
-namespace ember::scenario {
+namespace ember::pipeline {
 
-void ThreadExecutor::run(const std::vector<std::size_t>& pending, const UnitWork& work, const UnitDone& done) const {
+void ThreadExecutor::run(const std::vector<std::size_t>& pending, const ItemWork& work, const ItemDone& done) const {
   std::mutex mutex;
   parallel_for(pending.size(), threads_, [&](std::size_t i) {
     const std::string text = work(pending[i]);
@@ -15,4 +15,4 @@ void ThreadExecutor::run(const std::vector<std::size_t>& pending, const UnitWork
   });
 }
 
-}  // namespace ember::scenario
+}  // namespace ember::pipeline

@@ -1,4 +1,4 @@
-#include "job_units.hpp"
+#include "work_items.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -7,7 +7,7 @@
 #include "ember/tunnelling/action_cache.hpp"
 #include "ember/tunnelling/rate.hpp"
 
-namespace ember::scenario::detail {
+namespace ember::pipeline::detail {
 
 using tunnelling::Prescription;
 
@@ -15,25 +15,6 @@ std::string one_line(std::string text) {
   for (char& c : text)
     if (c == '\n' || c == '\r') c = ' ';
   return text;
-}
-
-// What is chunked (scan rows or grid masses): how many, and how many per chunk at most.
-std::pair<std::size_t, std::size_t> JobPlan::chunking() const {
-  if (monochromatic()) return {rows.size(), static_cast<std::size_t>(options->rows_per_chunk)};
-  return {grid.size(), static_cast<std::size_t>(options->grid_per_chunk)};
-}
-
-std::size_t JobPlan::chunks_per_table() const {
-  const auto [n, per] = chunking();
-  const std::size_t wanted = std::max<std::size_t>(1, (n + per - 1) / per);
-  const std::size_t bound = std::max<std::size_t>(1, static_cast<std::size_t>(options->max_chunks) / tables());
-  return std::min(wanted, bound);
-}
-
-// Chunk k of c holds [k n / c, (k + 1) n / c): sizes differ by at most one.
-std::pair<std::size_t, std::size_t> JobPlan::chunk_span(std::size_t chunk) const {
-  const std::size_t n = chunking().first, c = chunks_per_table();
-  return {chunk * n / c, (chunk + 1) * n / c};
 }
 
 namespace {
@@ -45,30 +26,27 @@ constexpr double response_cost = 0.1;
 constexpr double top_search_cost = 3;
 }  // namespace
 
-double expected_table_cost(const JobPlan& plan, std::size_t t) {
-  const PointModel& model = plan.models[t / plan.prescriptions()];
-  const Prescription p = plan.scenario->tunnelling.prescriptions[t % plan.prescriptions()];
-  if (model.failure || (model.no_decay && p != Prescription::thin_wall)) return 0.01;  // nothing to solve
-  const auto& o = plan.table_options;
-  const double checks = (o.points - 2) / o.midpoint_stride + 1;
-  return (o.points + checks + top_search_cost) * tunnelling::relative_node_cost(p);
-}
-
-double expected_chunk_cost(const JobPlan& plan, std::size_t j) {
-  const std::size_t t = j / plan.chunks_per_table();
-  const PointModel& model = plan.models[t / plan.prescriptions()];
+double expected_cost(const JobPlan& plan, const WorkItem& w) {
+  const PointModel& model = plan.models[w.point];
+  const Prescription p = plan.prescription(w);
+  if (w.is_table) {
+    if (model.failure || (model.no_decay && p != Prescription::thin_wall)) return 0.01;  // nothing to solve
+    const auto& o = plan.table_options;
+    const double checks = (o.points - 2) / o.midpoint_stride + 1;
+    return (o.points + checks + top_search_cost) * tunnelling::relative_node_cost(p);
+  }
   if (model.failure || model.no_decay) return 0.01;
-  const auto [begin, end] = plan.chunk_span(j % plan.chunks_per_table());
+  const auto [begin, end] = plan.chunk_span(w.chunk);
   return 0.01 + response_cost * static_cast<double>(end - begin);
 }
 
-std::string table_work(const JobPlan& plan, std::size_t t) {
-  const Scenario& s = *plan.scenario;
-  const PointModel& model = plan.models[t / plan.prescriptions()];
-  const Prescription p = s.tunnelling.prescriptions[t % plan.prescriptions()];
-  TableResult r;
+std::string table_work(const JobPlan& plan, const WorkItem& w) {
+  const scenario::Scenario& s = *plan.scenario;
+  const PointModel& model = plan.models[w.point];
+  const Prescription p = plan.prescription(w);
+  TableRecord r;
   if (model.failure) {
-    r.state = TableResult::State::failed;
+    r.state = TableRecord::State::failed;
     r.failure = *model.failure;
     return to_text(r);
   }
@@ -83,13 +61,13 @@ std::string table_work(const JobPlan& plan, std::size_t t) {
     setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
     const tunnelling::CachedTable cached =
         tunnelling::cached_action_table(p, setup, plan.table_options, plan.options->cache_directory);
-    r.state = TableResult::State::table;
+    r.state = TableRecord::State::table;
     r.cache_hit = cached.hit;
     r.cache_failure = cached.store_failure.value_or("");
     r.table = cached.table.to_text();
   } catch (const NumericalError& e) {
-    // Recorded, and the other units go on (issue 9).
-    r.state = TableResult::State::failed;
+    // Recorded, and the other units go on.
+    r.state = TableRecord::State::failed;
     r.failure = one_line(e.what());
   }
   return to_text(r);
@@ -103,15 +81,14 @@ void drop_unphysical(std::optional<double>& beta, std::optional<double>& f) {
   if (beta && !(*beta < 1)) beta = f = std::nullopt;
 }
 
-void monochromatic_rows(const JobPlan& plan, std::size_t t, const tunnelling::ActionTable& table, std::size_t begin,
-                        std::size_t end, UnitResult& u) {
-  const std::size_t point = t / plan.prescriptions(), k = t % plan.prescriptions();
-  const bool central = plan.points[point].central;
+void monochromatic_rows(const JobPlan& plan, const WorkItem& w, const tunnelling::ActionTable& table, std::size_t begin,
+                        std::size_t end, ItemResult& u) {
+  const bool central = plan.points[w.point].central;
   u.beta_max.assign(end - begin, std::nullopt);
   u.f_max.assign(end - begin, std::nullopt);
   for (std::size_t r = begin; r < end; ++r) try {
-      if (plan.options->before_row) plan.options->before_row(point, k, r);
-      const population::Response resp = population::response_at(plan.rows[r].first, table, plan.context);
+      if (plan.options->before_row) plan.options->before_row(w.point, w.prescription, r);
+      const population::Response resp = population::response_at(plan.rows[r].mass, table, plan.context);
       if (resp.lightcone_per_beta > 0) {
         u.beta_max[r - begin] = plan.scenario->exclusion.max_decays / resp.lightcone_per_beta;
         u.f_max[r - begin] = *u.beta_max[r - begin] * resp.f_per_beta;
@@ -119,15 +96,15 @@ void monochromatic_rows(const JobPlan& plan, std::size_t t, const tunnelling::Ac
       drop_unphysical(u.beta_max[r - begin], u.f_max[r - begin]);
       if (central) u.scan.push_back(resp);
     } catch (const NumericalError& e) {
-      // Recorded with its reason; the other rows go on (issue 9).
+      // Recorded with its reason; the other rows go on.
       u.beta_max[r - begin] = u.f_max[r - begin] = std::nullopt;
       u.row_failures.resize(end - begin);
       u.row_failures[r - begin] = one_line(e.what());
     }
 }
 
-UnitResult failed_unit(std::size_t rows, const std::string& why, std::optional<bool> cache_hit) {
-  UnitResult u;
+ItemResult failed_unit(std::size_t rows, const std::string& why, std::optional<bool> cache_hit) {
+  ItemResult u;
   u.beta_max.assign(rows, std::nullopt);
   u.f_max.assign(rows, std::nullopt);
   u.failure = why;
@@ -137,17 +114,16 @@ UnitResult failed_unit(std::size_t rows, const std::string& why, std::optional<b
 
 }  // namespace
 
-std::string chunk_work(const JobPlan& plan, const Tables& tables, std::size_t j) {
-  const std::size_t t = j / plan.chunks_per_table();
-  const auto [begin, end] = plan.chunk_span(j % plan.chunks_per_table());
-  UnitResult u;
-  if (!tables[t]) return to_text(u);  // no table: nothing to compute here
+std::string chunk_work(const JobPlan& plan, const Tables& tables, const WorkItem& w) {
+  const auto [begin, end] = plan.chunk_span(w.chunk);
+  ItemResult u;
+  if (!tables[w.table]) return to_text(u);  // no table: nothing to compute here
   if (plan.monochromatic()) {
-    monochromatic_rows(plan, t, *tables[t], begin, end, u);
+    monochromatic_rows(plan, w, *tables[w.table], begin, end, u);
   } else {
     try {
       for (std::size_t i = begin; i < end; ++i)
-        u.scan.push_back(population::response_at(plan.grid[i], *tables[t], plan.context));
+        u.scan.push_back(population::response_at(plan.grid[i], *tables[w.table], plan.context));
     } catch (const NumericalError& e) {
       u.scan.clear();
       u.failure = one_line(e.what());  // the whole unit fails: every row integrates over the grid
@@ -159,16 +135,16 @@ std::string chunk_work(const JobPlan& plan, const Tables& tables, std::size_t j)
 namespace {
 
 // Extended spectra: every row integrates over the whole response grid.
-void extended_rows(const JobPlan& plan, std::size_t t, const std::vector<population::Response>& grid, UnitResult& u) {
-  const Scenario& s = *plan.scenario;
-  const std::size_t point = t / plan.prescriptions(), k = t % plan.prescriptions();
+void extended_rows(const JobPlan& plan, const WorkItem& w, const std::vector<population::Response>& grid,
+                   ItemResult& u) {
+  const scenario::Scenario& s = *plan.scenario;
   for (std::size_t r = 0; r < plan.rows.size(); ++r) try {
-      if (plan.options->before_row) plan.options->before_row(point, k, r);
+      if (plan.options->before_row) plan.options->before_row(w.point, w.prescription, r);
       const double per_f = population::lightcone_per_amplitude(*plan.row_spectra[r], grid);
       if (per_f > 0) {
         u.f_max[r] = s.exclusion.max_decays / per_f;
         const population::Formation f =
-            population::formation_of(plan.rows[r].first, s.population.collapse_fraction, *plan.background);
+            population::formation_of(plan.rows[r].mass, s.population.collapse_fraction, *plan.background);
         u.beta_max[r] = *u.f_max[r] / population::f_pbh_per_beta(f, *plan.background);
       }
       drop_unphysical(u.beta_max[r], u.f_max[r]);
@@ -179,27 +155,16 @@ void extended_rows(const JobPlan& plan, std::size_t t, const std::vector<populat
     }
 }
 
-population::AbundanceMeasure measure_of(AbundanceMeasure m) {
-  switch (m) {
-    case AbundanceMeasure::beta: return population::AbundanceMeasure::beta;
-    case AbundanceMeasure::f_pbh: return population::AbundanceMeasure::f_pbh;
-    case AbundanceMeasure::lightcone_count: return population::AbundanceMeasure::lightcone_count;
-  }
-  return population::AbundanceMeasure::beta;
-}
-
 // The central point's own abundance, and Gamma_D / Gamma_H for the plot.
-void central_extras(const JobPlan& plan, std::size_t t, const tunnelling::ActionTable& table,
-                    const std::vector<population::Response>& grid, UnitResult& u) {
-  const Scenario& s = *plan.scenario;
-  if (plan.options->before_row)
-    plan.options->before_row(t / plan.prescriptions(), t % plan.prescriptions(), plan.rows.size());
+void central_extras(const JobPlan& plan, const WorkItem& w, const tunnelling::ActionTable& table,
+                    const std::vector<population::Response>& grid, ItemResult& u) {
+  const scenario::Scenario& s = *plan.scenario;
+  if (plan.options->before_row) plan.options->before_row(w.point, w.prescription, plan.rows.size());
   const std::vector<population::Response> own = plan.monochromatic()
                                                     ? std::vector<population::Response>{population::response_at(
                                                           plan.base->characteristic_mass(), table, plan.context)}
                                                     : grid;
-  u.counts =
-      population::counts_for(*plan.base, measure_of(s.population.abundance.measure), s.population.abundance.value, own);
+  u.counts = population::counts_for(*plan.base, s.population.abundance.measure, s.population.abundance.value, own);
   if (!plan.monochromatic()) u.scan = grid;
   u.table_summary = table.summary().message;
   for (const double m : plan.plot_masses) {
@@ -210,19 +175,19 @@ void central_extras(const JobPlan& plan, std::size_t t, const tunnelling::Action
 
 }  // namespace
 
-UnitResult assemble_unit(const JobPlan& plan, std::size_t t, const TableResult& record,
-                         const std::optional<tunnelling::ActionTable>& table, const std::vector<UnitResult>& chunks) {
+ItemResult assemble_table(const JobPlan& plan, const WorkItem& w, const TableRecord& record,
+                          const std::optional<tunnelling::ActionTable>& table, const std::vector<ItemResult>& chunks) {
   const std::size_t n = plan.rows.size();
-  if (record.state == TableResult::State::failed) return failed_unit(n, record.failure, record.cache_hit);
-  UnitResult u;
+  if (record.state == TableRecord::State::failed) return failed_unit(n, record.failure, record.cache_hit);
+  ItemResult u;
   u.beta_max.assign(n, std::nullopt);
   u.f_max.assign(n, std::nullopt);
   u.cache_hit = record.cache_hit;
-  if (record.state == TableResult::State::no_decay || !table) return u;
+  if (record.state == TableRecord::State::no_decay || !table) return u;
   try {
     std::vector<population::Response> grid;
     for (std::size_t c = 0; c < chunks.size(); ++c) {
-      const UnitResult& ch = chunks[c];
+      const ItemResult& ch = chunks[c];
       if (!ch.failure.empty()) return failed_unit(n, ch.failure, record.cache_hit);
       const std::size_t begin = plan.chunk_span(c).first;
       if (plan.monochromatic()) {
@@ -240,13 +205,13 @@ UnitResult assemble_unit(const JobPlan& plan, std::size_t t, const TableResult& 
         grid.insert(grid.end(), ch.scan.begin(), ch.scan.end());
       }
     }
-    if (!plan.monochromatic()) extended_rows(plan, t, grid, u);
-    if (plan.points[t / plan.prescriptions()].central) central_extras(plan, t, *table, grid, u);
+    if (!plan.monochromatic()) extended_rows(plan, w, grid, u);
+    if (plan.points[w.point].central) central_extras(plan, w, *table, grid, u);
   } catch (const NumericalError& e) {
-    // The whole unit failed (the scenario's own counts): recorded, and the others go on (issue 9).
+    // The whole unit failed (the scenario's own counts): recorded, and the others go on.
     return failed_unit(n, one_line(e.what()), record.cache_hit);
   }
   return u;
 }
 
-}  // namespace ember::scenario::detail
+}  // namespace ember::pipeline::detail

@@ -9,7 +9,7 @@
 #include <optional>
 #include <string>
 
-namespace ember::scenario {
+namespace ember::pipeline {
 
 struct CheckpointOptions {
   std::filesystem::path directory;
@@ -31,9 +31,9 @@ class Checkpoint {
   static void remove_folder(const std::filesystem::path& directory);
 
  private:
-  std::filesystem::path unit_file(std::size_t unit) const;
+  std::filesystem::path item_file(std::size_t unit) const;
   std::filesystem::path dir_;
   std::optional<std::string> failure_;
 };
 
-}  // namespace ember::scenario
+}  // namespace ember::pipeline

@@ -1,4 +1,4 @@
-#include "ember/scenario/checkpoint.hpp"
+#include "ember/pipeline/checkpoint.hpp"
 
 #include <fmt/format.h>
 
@@ -6,7 +6,7 @@
 #include "ember/core/cache.hpp"
 #include "ember/core/errors.hpp"
 
-namespace ember::scenario {
+namespace ember::pipeline {
 
 namespace {
 constexpr const char* identity_file = "job.identity";
@@ -35,17 +35,17 @@ Checkpoint::Checkpoint(const CheckpointOptions& o) : dir_(o.directory) {
   if (!existing || o.restart) write_or_fail(dir_, identity_file, o.identity + "\n");
 }
 
-std::filesystem::path Checkpoint::unit_file(std::size_t unit) const {
-  return dir_ / fmt::format("unit-{:06d}.txt", unit);
+std::filesystem::path Checkpoint::item_file(std::size_t unit) const {
+  return dir_ / fmt::format("item-{:06d}.txt", unit);
 }
 
 std::optional<std::string> Checkpoint::load(std::size_t unit) const {
-  return cache_read_checked(dir_, unit_file(unit).filename().string());
+  return cache_read_checked(dir_, item_file(unit).filename().string());
 }
 
 void Checkpoint::save(std::size_t unit, const std::string& text) {
   if (failure_) return;
-  if (const auto f = try_write_file_atomically(unit_file(unit), with_checksum(text)))
+  if (const auto f = try_write_file_atomically(item_file(unit), with_checksum(text)))
     failure_ = fmt::format(
         "the checkpoint in {} cannot be written ({}); the run goes on without it, and the "
         "work saved before still resumes it",
@@ -57,4 +57,4 @@ void Checkpoint::remove_folder(const std::filesystem::path& directory) {
   std::filesystem::remove_all(directory, ec);  // best effort: a leftover folder only costs disk
 }
 
-}  // namespace ember::scenario
+}  // namespace ember::pipeline

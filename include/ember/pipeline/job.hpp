@@ -13,12 +13,12 @@
 #include <vector>
 
 #include "ember/higgs/stability.hpp"
+#include "ember/pipeline/checkpoint.hpp"
+#include "ember/pipeline/executor.hpp"
 #include "ember/population/counts.hpp"
-#include "ember/scenario/checkpoint.hpp"
-#include "ember/scenario/executor.hpp"
 #include "ember/scenario/scenario.hpp"
 
-namespace ember::scenario {
+namespace ember::pipeline {
 
 // Numerical choices of the job, with their rule; not scenario keys.
 struct JobOptions {
@@ -114,7 +114,7 @@ struct JobResults {
   double survivors_mass = 0;                                     // holes above this mass survive today (GeV)
   double seconds = 0;
   int tables_built = 0, tables_from_cache = 0;    // B(M) tables, per (Higgs point, prescription)
-  int units_resumed = 0;                          // units read back from a checkpoint
+  int items_resumed = 0;                          // units read back from a checkpoint
   std::optional<std::string> cache_warning;       // the cache could not keep a table built here: why (the first)
   std::optional<std::string> checkpoint_warning;  // checkpointing stopped during the run: why
   std::vector<FailedPoint> failures;              // in scan order; empty when every point succeeded
@@ -123,6 +123,6 @@ struct JobResults {
 
 // Throws InputError for a prescription the potential cannot take (hot_bubble needs the Standard
 // Model; thin_wall needs a wall), NumericalError when a solver fails.
-JobResults run_job(const Scenario& scenario, const JobOptions& options = {});
+JobResults run_job(const scenario::Scenario& scenario, const JobOptions& options = {});
 
-}  // namespace ember::scenario
+}  // namespace ember::pipeline

@@ -1,7 +1,8 @@
-// What one unit of the main job produces: one Higgs-input point under one prescription. Units are
-// independent; they are what threads share out, what a checkpoint stores and what MPI ranks send
-// to rank 0. The text form is exact (hex floats), so a resumed or distributed run assembles the
-// same numbers as a serial one.
+// What the main job's work items produce, as records: a B(M) table (TableRecord), and the results
+// of a chunk of formation masses, or of a whole (Higgs point, prescription) once its chunks are
+// assembled (ItemResult). Items are independent; they are what threads share out, what a
+// checkpoint stores and what MPI ranks send to rank 0. The text form is exact (hex floats), so a
+// resumed or distributed run assembles the same numbers as a serial one.
 //
 // Units: masses in GeV, times in GeV^-1 (as population::Response).
 #pragma once
@@ -12,9 +13,9 @@
 
 #include "ember/population/counts.hpp"
 
-namespace ember::scenario {
+namespace ember::pipeline {
 
-struct UnitResult {
+struct ItemResult {
   std::vector<std::optional<double>> beta_max, f_max;  // per scan row; none: no constraint
   std::vector<population::Response> scan;              // central point only
   population::Counts counts;                           // central point only
@@ -25,13 +26,13 @@ struct UnitResult {
   std::vector<std::string> row_failures;               // per scan row: why it failed; empty: it did not
 };
 
-std::string to_text(const UnitResult& unit);
+std::string to_text(const ItemResult& item);
 // Throws InputError naming `what` (a file, or a rank) when the text is malformed.
-UnitResult unit_from_text(const std::string& text, const std::string& what);
+ItemResult item_from_text(const std::string& text, const std::string& what);
 
 // The first stage of a unit: its B(M) table, shared by every chunk of formation masses. `table` is
 // ActionTable::to_text() (exact); empty when there is no table.
-struct TableResult {
+struct TableRecord {
   enum class State { table, no_decay, failed } state = State::no_decay;
   std::optional<bool> cache_hit;
   std::string failure;        // why, when failed
@@ -39,7 +40,7 @@ struct TableResult {
   std::string table;
 };
 
-std::string to_text(const TableResult& table);
-TableResult table_from_text(const std::string& text, const std::string& what);
+std::string to_text(const TableRecord& table);
+TableRecord table_from_text(const std::string& text, const std::string& what);
 
-}  // namespace ember::scenario
+}  // namespace ember::pipeline

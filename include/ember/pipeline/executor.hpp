@@ -1,6 +1,6 @@
 // Who computes the main job's units: threads on this machine (ThreadExecutor), or MPI ranks
 // with threads each (the optional ember_mpi library, src/mpi/). Work items are pure functions of
-// their index returning exact text (UnitResult), so any executor assembles the same numbers.
+// their index returning exact text (ItemResult), so any executor assembles the same numbers.
 #pragma once
 
 #include <cstddef>
@@ -8,17 +8,17 @@
 #include <string>
 #include <vector>
 
-namespace ember::scenario {
+namespace ember::pipeline {
 
-using UnitWork = std::function<std::string(std::size_t)>;
-using UnitDone = std::function<void(std::size_t, const std::string&)>;
+using ItemWork = std::function<std::string(std::size_t)>;
+using ItemDone = std::function<void(std::size_t, const std::string&)>;
 
 class Executor {
  public:
   virtual ~Executor() = default;
   // Computes work(i) for every i in `pending`. On the assembling process done(i, text) is called
   // once per item, never two at a time; if any item throws, the lowest index's error is rethrown.
-  virtual void run(const std::vector<std::size_t>& pending, const UnitWork& work, const UnitDone& done) const = 0;
+  virtual void run(const std::vector<std::size_t>& pending, const ItemWork& work, const ItemDone& done) const = 0;
   // The assembling process's list, shared with every process (all must agree on the work).
   virtual std::vector<std::size_t> agree(const std::vector<std::size_t>& pending) const { return pending; }
   // Gives every process the assembling process's texts (MPI: a broadcast from rank 0); called by
@@ -31,10 +31,10 @@ class Executor {
 class ThreadExecutor final : public Executor {
  public:
   explicit ThreadExecutor(int threads) : threads_(threads) {}
-  void run(const std::vector<std::size_t>& pending, const UnitWork& work, const UnitDone& done) const override;
+  void run(const std::vector<std::size_t>& pending, const ItemWork& work, const ItemDone& done) const override;
 
  private:
   int threads_;
 };
 
-}  // namespace ember::scenario
+}  // namespace ember::pipeline
