@@ -50,7 +50,7 @@ TEST_CASE("the bad corpus is complete and large enough") {
   for (const auto& entry : fs::directory_iterator(bad_dir))
     if (entry.path().extension() == ".yaml") present.insert(entry.path().filename().string());
   CHECK(listed == present);
-  CHECK(present.size() >= 20);  // issue 2: at least 20 malformed scenarios
+  CHECK(present.size() >= 20);  // a corpus of at least 20 malformed scenarios, one per kind of error
 }
 
 TEST_CASE("each malformed scenario fails with its line and key path") {

@@ -97,7 +97,7 @@ TEST_CASE("flux conservation |T|^2 + |R|^2 = 1 (derived: the Wronskian is conser
     }
 }
 
-TEST_CASE("superpartner and polar potentials transmit alike (derived; issue 3)") {
+TEST_CASE("superpartner and polar potentials transmit alike (derived)") {
   for (double x : {0.01, 0.1, 0.25, 0.5, 1.0}) {
     CAPTURE(x);
     for (double j : {0.5, 1.5, 3.5}) {
@@ -178,7 +178,7 @@ TEST_CASE("below the table, the power-law tail is honest about its error") {
 }
 
 TEST_CASE("the table holds each spin up to where further l add under 1e-6 of the power") {
-  // The build rule (issue 3): the last tabulated l of each spin carries under 1e-6 of its power,
+  // The build rule (greybody/table.hpp): the last tabulated l of each spin carries under 1e-6 of its power,
   // and the one before it more.
   for (const int ts : {0, 1, 2, 4}) {
     const auto ls = shipped().twice_ls(ts);

@@ -129,7 +129,7 @@ TEST_CASE("decay along trajectories: the two hazard integrals agree, and P ~ 1 g
     CAPTURE(m);
     REQUIRE(r.decay.evaporated);
     CHECK(r.decay.probability == doctest::Approx(1.0));
-    // int Gamma_D dt against int (Gamma_D/Gamma_H) d ln M (issue 7's cross-check).
+    // int Gamma_D dt against int (Gamma_D/Gamma_H) d ln M (a cross-check of the two integration variables).
     CHECK(close(r.decay.hazard_in_time, r.decay.hazard, 1e-5));
     // A hole that surely decays does so once decay outruns evaporation: after the crossover, before
     // the end (derived). Far above the crossover mass that is the end of its life.
@@ -248,7 +248,7 @@ TEST_CASE("checkpoint files stay bounded however fine the grid, and a rerun resu
 }
 
 TEST_CASE("a band mixing stable and metastable points, with widths, lambda6 and a light-cone count") {
-  // Derived checks of the job's bookkeeping (issue 7): a band over M_t +- 2 GeV (the low end is
+  // Derived checks of the job's bookkeeping: a band over M_t +- 2 GeV (the low end is
   // stable: the critical top mass is about 171 GeV, Buttazzo et al. JHEP 12 (2013) 089, from
   // memory; the test reads each point's verdict rather than assuming it) and lambda6 = 3.
   const auto loaded = scenario::load_scenario_text(R"(
@@ -299,8 +299,8 @@ scan:
 }
 
 TEST_CASE("a failed point is recorded with its reason, and the rest of the scan goes on") {
-  // Derived (the job's contract, issue 9): failures are injected through JobOptions::before_row,
-  // as a solver would throw them; every other number must equal the run without failures.
+  // Derived (the job's contract: a failure is recorded, never fatal): failures are injected through
+  // JobOptions::before_row, as a solver would throw them; every other number must equal the run without failures.
   auto loaded = scenario::load_scenario_file(source_dir / "configs/higgs_sensitivity.yaml");
   loaded.scenario.scan.masses.points = 3;
   loaded.scenario.scan.band.top_mass.points = 2;

@@ -172,7 +172,7 @@ TEST_CASE("probe-limit and back-reacted bubbles agree as G E -> 0") {
 TEST_CASE("probe-limit rescaling: B(a M; V) = a^2 B(M; a^2 V)") {
   // Derived: with r = a rho, the probe field equation (r^2 f phi')' = r^2 V'(phi) for mass a M and
   // V becomes that for mass M and a^2 V, the energy E = a E~, so B = 8 pi G M E gains a^2. For a
-  // pure quartic, a^2 V is V again after phi -> phi/a, which makes B independent of M (issue 6).
+  // pure quartic, a^2 V is V again after phi -> phi/a, which makes B independent of M.
   // But a pure negative quartic has no static bubble at all (derived): integrating the field
   // equation from the horizon, r^2 f phi' = int r^2 lambda phi^3 dr < 0 and falls without bound
   // (a tail phi >= C/r makes the integral diverge like ln r), so every positive profile crosses
@@ -425,7 +425,7 @@ TEST_CASE("heavy seeds: no bracket is an error, and never a negative B") {
 }
 
 TEST_CASE("strong back-reaction: the branch scan, and the regime below the critical seed mass") {
-  // Derived (issue 6): for the toy wall at a = 0.03 M_Pl the bubble carries Delta M / M of 6% to
+  // Derived: for the toy wall at a = 0.03 M_Pl the bubble carries Delta M / M of 6% to
   // 100 times M_-, so entropy_drop scans remnants for every branch; the answer must be a solution,
   // M_+ = M_- + Delta M(M_-), with B = 4 pi G (M_+^2 - M_-^2). Measured: M_+(M_-) rises
   // monotonically from about 0.146 of the reference mass 26.7/(2 G a) as M_- -> 0, so lighter
@@ -455,7 +455,7 @@ TEST_CASE("strong back-reaction: the branch scan, and the regime below the criti
   CHECK(close(light.action.value, 4 * units::pi * units::newton_G * std::pow(0.1 * reference, 2), 1e-12));
 }
 
-TEST_CASE("B(M) tables are bit for bit the same on 1 or 3 threads (issue 8)") {
+TEST_CASE("B(M) tables are bit for bit the same on 1 or 3 threads") {
   const TunnellingSetup s = sm_setup();
   ActionTableOptions o;
   o.points = 10;

@@ -42,10 +42,6 @@ Parameters planck2018() {
   return p;
 }
 
-double planck2018_age() {
-  return units::parse_quantity(embedded()["age"].Scalar(), units::time).value;
-}
-
 void Parameters::validate() const {
   const auto require = [](bool ok, const char* field, double v, const char* rule) {
     if (!ok) throw InputError(fmt::format("cosmology: {} = {}: {}", field, format_real(v), rule));
@@ -124,10 +120,6 @@ double Background::radiation_density(double temperature) const {
   return pi * pi / 30 * dof_.g_rho(temperature) * std::pow(temperature, 4);
 }
 
-double Background::entropy_density(double temperature) const {
-  return 2 * pi * pi / 45 * dof_.g_s(temperature) * std::pow(temperature, 3);
-}
-
 double Background::temperature(double a) const {
   // g_s(T) T^3 a^3 = g_s0 T0^3, solved by fixed-point iteration (g_s varies slowly in ln T).
   double t = p_.cmb_temperature / a;
@@ -169,7 +161,7 @@ double Background::scale_factor(double time) const {
 }
 
 double Background::lightcone_radius(double time) const {
-  // Module boundary (issue 9): the time a caller asks about must be finite.
+  // Module boundary (no NaN leaves a module): the time a caller asks about must be finite.
   require_finite(time, "cosmology: background", "time", "the past light cone of a decay",
                  "a formation mass inside the scan's range (1e-6 g to 1e50 g)");
   const double a = scale_factor(time);

@@ -177,7 +177,7 @@ double MassLoss::alpha(double mass) const {
   const double u = std::log(mass);
   if (u <= table_->ln_m_lo) return table_->alpha_lo;
   if (u >= table_->ln_m_hi) return table_->alpha_hi;
-  // Module boundary (issue 9): alpha leaves the evaporation module finite, or not at all.
+  // Module boundary (no NaN leaves a module): alpha leaves the evaporation module finite, or not at all.
   return require_finite(
       std::exp(gsl_spline_eval(table_->ln_alpha.get(), u, nullptr)), "evaporation: mass-loss table", "alpha(M)",
       [&] { return fmt::format("M = {:.6e} g", mass / units::gram); },

@@ -109,11 +109,6 @@ double Trajectory::mass_at_time_left(double left) const {
   return std::exp(0.5 * (lo + hi));
 }
 
-double Trajectory::temperature_at_age(double age) const {
-  const double m = mass_at_age(age);
-  return m > 0 ? hawking_temperature(m) : INFINITY;
-}
-
 std::vector<DecadeTime> Trajectory::decade_times() const {
   std::vector<DecadeTime> out;
   const double top_g = initial_mass_ / units::gram;

@@ -67,7 +67,7 @@ Emission emission_per_dof(const Table& table, int twice_spin) {
   const std::function<Estimate(double)> s = [&](double x) { return table.weighted_sum(twice_spin, x); };
   const bool fermion = twice_spin % 2 == 1;
   const Emission e{thermal_moment(s, fermion, 1), thermal_moment(s, fermion, 0)};
-  // Module boundary (issue 9): emission coefficients leave the greybody module finite.
+  // Module boundary (no NaN leaves a module): emission coefficients leave the greybody module finite.
   const auto inputs = [&] { return fmt::format("spin {}/2", twice_spin); };
   const char* hint = "rebuilding the greybody table (ember greybody --rebuild)";
   require_finite(e.power.value, "greybody: thermal emission", "power per dof", inputs, hint);

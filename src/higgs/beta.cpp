@@ -52,8 +52,8 @@ Couplings beta(const Couplings& c, int loops) {
 
   // Three loops, pure QCD only: beta_g3 gets +65/2 g3^7 (the six-flavour three-loop QCD beta
   // function); beta_yt gets -2 gamma_2 yt g3^6 with the three-loop quark-mass anomalous dimension
-  // at nf = 6, 64 gamma_2 = 1249 - 13296/27 - 320 zeta3 - 5040/81 (Tarasov 1982; as given in
-  // issue 5, from memory).
+  // at nf = 6, 64 gamma_2 = 1249 - 13296/27 - 320 zeta3 - 5040/81 (Tarasov 1982, from
+  // memory).
   const double loop3 = loop2 * loop;
   const double g36 = g32 * g32 * g32;
   b.g3 += loop3 * 65.0 / 2 * g3 * g36;

@@ -111,8 +111,5 @@ double Running::lambda(double mu) const {
 double Running::gamma_integral(double mu) const {
   return splines_->eval(5, t_of(mu));
 }
-double Running::lambda_slope(double mu) const {
-  return beta(couplings(mu), inputs_.loops).lambda;
-}
 
 }  // namespace ember::higgs

@@ -129,7 +129,7 @@ StabilityReport analyse_stability(const StandardModelPotential& pot, const Stabi
       "flat-space Fubini bounce, S = 8 pi^2 / (3 |q(mu)|) with the MS-bar quartic at mu = 1/R plus the "
       "Planck-suppressed "
       "operators at h = mu; expected decays N = max_mu (mu/H0)^4 e^{-S}";
-  // Module boundary (issue 9): the verdict's numbers leave the higgs module finite.
+  // Module boundary (no NaN leaves a module): the verdict's numbers leave the higgs module finite.
   const auto inputs = [&] { return pot.description(); };
   const char* hint = "fewer loops, or inputs nearer the measured values (data/standard_model.yaml)";
   require_finite(r.lambda_min, "higgs: stability", "lambda_min", inputs, hint);

@@ -19,7 +19,7 @@ Response response_at(double mass, const tunnelling::ActionTable& table, const Re
   r.hubble_per_beta = hubble_decays_per_beta(r.formation, r.decay, *c.background);
   r.f_per_beta = f_pbh_per_beta(r.formation, *c.background);
   r.count_per_beta = lightcone_count_per_beta(r.formation, *c.background);
-  // Module boundary (issue 9): a response leaves the population module finite.
+  // Module boundary (no NaN leaves a module): a response leaves the population module finite.
   const auto inputs = [&] { return fmt::format("formation mass {:.6e} g", mass / units::gram); };
   const char* hint = "a formation mass nearer the scan's other rows, or more decay_grid_points";
   require_finite(r.lightcone_per_beta, "population: decays per beta", "N_lightcone / beta", inputs, hint);
@@ -109,7 +109,7 @@ Counts counts_unchecked(const MassFunction& s, AbundanceMeasure measure, double 
 Counts counts_for(const MassFunction& s, AbundanceMeasure measure, double value, const std::vector<Response>& rs) {
   if (rs.empty()) throw InputError("counts: no responses");
   const Counts c = counts_unchecked(s, measure, value, rs);
-  // Module boundary (issue 9): the counts leave the population module finite.
+  // Module boundary (no NaN leaves a module): the counts leave the population module finite.
   const auto inputs = [&] { return fmt::format("abundance {} on {}", value, s.description()); };
   const char* hint = "another abundance measure (beta or f_pbh), or a spectrum inside the formable masses";
   for (const auto& [what, v] : {std::pair{"beta", c.beta}, std::pair{"f_PBH", c.f_pbh},

@@ -339,7 +339,7 @@ ActionPoint action_at(Prescription p, const TunnellingSetup& s, double seed, con
     case Prescription::thin_wall: a = thin_wall(s, seed); break;
   }
   a.flags.below_floor = seed < s.semiclassical_floor;
-  // Module boundary (issue 9): B and the remnant leave the tunnelling module finite.
+  // Module boundary (no NaN leaves a module): B and the remnant leave the tunnelling module finite.
   const auto inputs = [&] {
     return fmt::format("{} at seed mass {:.6e} M_Pl ({})", name_of(p), seed / units::planck_mass,
                        s.potential->description());

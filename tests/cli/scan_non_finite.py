@@ -1,5 +1,5 @@
 #!/usr/bin/env python3
-"""Scans every output file under the given folders for a NaN or an infinity (issue 9).
+"""Scans every output file under the given folders for a NaN or an infinity (no output may hold one).
 
 Text files: a standalone nan, inf or infinity token (any case, any sign) on a data line (lines
 starting with # carry the user's own words and are skipped). JSON files: also a null where the

@@ -257,7 +257,7 @@ for key in ("lambda_at", "lambda_eff_at", "instability_scale_GeV", "lambda_min",
 if abs(h["lambda_at"] + 0.0143) > 0.0005:
     print(f"FAIL: lambda(M_Pl) = {h['lambda_at']}, not -0.0143")
     bad += 1
-# P = 1 - e^-N is N itself for N ~ 1e-868 (the key issue 5 asks for, beside log10 N).
+# P = 1 - e^-N is N itself for N ~ 1e-868 (the key beside log10 N).
 if h.get("log10_decay_probability") != h.get("log10_expected_decays"):
     print(f"FAIL: higgs log10_decay_probability {h.get('log10_decay_probability')} != log10 N")
     bad += 1

@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# Hostile and extreme input (issue 9): each case ends with a result or a clear refusal (exit 2,
+# Hostile and extreme input: each case ends with a result or a clear refusal (exit 2,
 # naming the file, line and key), never a crash, a NaN or a half-written folder. Then: the same
 # scenario run twice gives identical files apart from timing fields, and no output of this test
 # holds a NaN or an inf.

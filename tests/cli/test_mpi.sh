@@ -63,7 +63,7 @@ code=$?
 [[ $code == 2 ]] || fail "foreign checkpoint under MPI: exit $code, expected 2"
 grep -q -- '--restart' "$work/foreign.out" || fail "foreign checkpoint under MPI: no --restart hint"
 
-# No output of the MPI runs holds a NaN or an inf (issue 9); *.out are captured messages.
+# No output of the MPI runs holds a NaN or an inf ; *.out are captured messages.
 python3 "$(dirname "$0")/scan_non_finite.py" "$work/serial" "$work/mpi2" || failures=$((failures + 1))
 
 if ((failures > 0)); then

@@ -28,7 +28,6 @@ struct Parameters {
   void validate() const;
 };
 Parameters planck2018();  // data/cosmology.yaml, compiled in
-double planck2018_age();  // GeV^-1, the age Planck quote (13.787 Gyr), for comparison
 
 class Background {
  public:
@@ -45,7 +44,6 @@ class Background {
   double horizon_mass(double time) const;              // GeV
   double radiation_density(double temperature) const;  // GeV^4
   double critical_density() const;                     // today, GeV^4
-  double entropy_density(double temperature) const;    // GeV^3
   double omega_cdm() const;
   const Parameters& parameters() const { return p_; }
   const DegreesOfFreedom& dof() const { return dof_; }

@@ -21,8 +21,6 @@ class DegreesOfFreedom {
 
   double g_rho(double temperature) const;
   double g_s(double temperature) const;
-  double t_min() const { return t_min_; }
-  double t_max() const { return t_max_; }
   const std::string& source() const { return source_; }
   // The low-temperature values, set by the background from N_eff.
   void set_low_temperature_limit(double g_rho0, double g_s0);

@@ -58,13 +58,9 @@ class Trajectory {
   double mass_at_age(double age) const { return mass_at_time_left(lifetime() - age); }
   // The mass when `left` (GeV^-1) remains; no subtraction, so exact to the end.
   double mass_at_time_left(double left) const;
-  double temperature_at_age(double age) const;
 
   std::vector<DecadeTime> decade_times() const;
   const TrajectorySummary& summary() const { return summary_; }
-  // The integration nodes (ln M, ln tau), lowest mass first, for output and tests.
-  const std::vector<double>& node_log_mass() const { return u_; }
-  const std::vector<double>& node_log_time_left() const { return w_; }
 
  private:
   double initial_mass_, cutoff_, alpha_cut_, tail_;

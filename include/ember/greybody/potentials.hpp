@@ -1,13 +1,12 @@
 // The radial potentials V(r) of d^2 psi/dr*^2 + (omega^2 - V) psi = 0 (G = c = hbar = M = 1).
 //
 //   Regge-Wheeler (s = 0, 1, axial 2): V = f [l(l+1)/r^2 + (1 - s^2) 2/r^3]
-//     (Regge & Wheeler, Phys. Rev. 108 (1957) 1063, for s = 2; the general-spin form as stated in
-//      issue 3)
+//     (Regge & Wheeler, Phys. Rev. 108 (1957) 1063, for s = 2; the general-spin form from memory)
 //   Zerilli (polar s = 2): V = f [2 L^2 (L+1) r^3 + 6 L^2 r^2 + 18 L r + 18] / [r^3 (L r + 3)^2],
 //     L = (l - 1)(l + 2)/2 (Zerilli, PRL 24 (1970) 737; transcribed from memory, and validated by
 //     the test that its transmission equals the axial one)
 //   Dirac (s = 1/2): V = W^2 +- dW/dr*, W = (j + 1/2) sqrt(f)/r, the pair of superpartner
-//     potentials of the massless Dirac field (as stated in issue 3; validated by the test that
+//     potentials of the massless Dirac field (from memory; validated by the test that
 //     both signs transmit alike)
 // with f = 1 - 2/r and r* = r + 2 ln(r/2 - 1).
 //

@@ -1,8 +1,8 @@
 // Renormalisation-group functions of the Standard Model couplings (MS-bar), in t = ln mu:
 //   d g/dt = beta^(1)/(16 pi^2) + beta^(2)/(16 pi^2)^2 + beta^(3)/(16 pi^2)^3.
 // One and two loops: Machacek & Vaughn, Nucl. Phys. B222 (1983) 83, B236 (1984) 221, B249 (1985)
-// 70; Luo & Xiao, PRL 90 (2003) 011601 (as transcribed in issue 5, from memory there; validated by
-// the lambda(M_Pl) test). Three loops: only the pure-QCD terms (see beta.cpp).
+// 70; Luo & Xiao, PRL 90 (2003) 011601 (transcribed from memory; validated by the
+// lambda(M_Pl) test). Three loops: only the pure-QCD terms (see beta.cpp).
 #pragma once
 
 #include "ember/higgs/inputs.hpp"

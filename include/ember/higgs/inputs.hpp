@@ -36,7 +36,7 @@ struct Couplings {
 };
 
 // MS-bar couplings at mu = M_t from the fits of Buttazzo et al., JHEP 12 (2013) 089, in terms of
-// pole masses and alpha_s(M_Z) (as quoted in issue 5). Fits are valid near the central values only.
+// pole masses and alpha_s(M_Z) (from memory). Fits are valid near the central values only.
 Couplings couplings_at_top(const Inputs& inputs);
 
 // Warnings when inputs stray from the ranges where those fits hold (|dM_t| > 3 GeV,

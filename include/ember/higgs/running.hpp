@@ -41,8 +41,6 @@ class Running {
   Couplings couplings(double mu) const;
   double lambda(double mu) const;
   double gamma_integral(double mu) const;  // Gamma(mu)
-  // d lambda / d ln mu from the beta function at mu (exact, not from the spline).
-  double lambda_slope(double mu) const;
 
   double mu_min() const { return inputs_.top_mass; }
   double mu_max() const { return options_.mu_max; }

@@ -79,8 +79,7 @@ struct PrescriptionOutcome {
   std::vector<population::Response> scan;  // monochromatic responses at the scan masses (decay.csv)
   std::string table_summary;
   std::vector<double> plot_ratio;  // Gamma_D / Gamma_H at JobResults::plot_masses
-  std::vector<std::string> notes;
-  std::string failure;  // a solver failed for the central point: why (counts and verdict then void)
+  std::string failure;             // a solver failed for the central point: why (counts and verdict then void)
 };
 
 struct BandPoint {

@@ -8,7 +8,7 @@
 // integrated adaptively in ln M (GSL QAG), and P_decay = 1 - e^{-H}. As a cross-check the same
 // hazard is integrated in time along the trajectory, in ln(time left). The decay time is the
 // probability-weighted mean time of decay, int t dP / P. The expected decays in our past light
-// cone from holes of this mass are n a^3 P (4 pi/3) chi(t_decay)^3 (issue 7), and per Hubble
+// cone from holes of this mass are n a^3 P (4 pi/3) chi(t_decay)^3, and per Hubble
 // volume at the decay n(t_decay) P (4 pi/3) H(t_decay)^-3.
 #pragma once
 

@@ -4,10 +4,10 @@
 //
 //   monochromatic      delta(M - M0)
 //   lognormal          exp(-ln^2(M/Mc) / (2 s^2)) / (sqrt(2 pi) s M)   (Carr, Raidal, Tenkanen,
-//                      Vaskonen & Veermae, PRD 96 (2017) 023514, from memory; the form in issue 7)
+//                      Vaskonen & Veermae, PRD 96 (2017) 023514, from memory)
 //   power law          ~ M^p between cutoffs; p = -3/2 for scale-invariant fluctuations collapsing
 //                      in a radiation era (Carr 1975)
-//   critical collapse  ~ M^k exp(-(M/Mf)^k), k = 2.85 (as in issue 7), normalised with
+//   critical collapse  ~ M^k exp(-(M/Mf)^k), k = 2.85 (common practice), normalised with
 //                      int M^k e^{-(M/Mf)^k} dM = Mf^(k+1) Gamma((k+1)/k) / k (derived)
 //   table              psi(M) from a two-column file, normalised numerically
 #pragma once

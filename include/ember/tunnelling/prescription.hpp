@@ -57,7 +57,7 @@ struct Flags {
   bool beyond_table = false;       // above the tabulated range: B extrapolated, the rate negligible
   bool unconverged = false;        // the solver's error on B exceeds 1e-4 of B (see the note)
   // Below the critical seed mass: no static solution here, but one at a heavier seed. The
-  // remnant-free, Euclidean-time-dependent instantons that take over are not computed (issue 6);
+  // remnant-free, Euclidean-time-dependent instantons that take over are not computed;
   // the fallback B = 4 pi G M^2 stands in for them.
   bool remnant_free_regime = false;
   std::vector<std::string> list() const;

@@ -1,6 +1,7 @@
 // The remnant branches of a back-reacted static bubble: for a seed hole of mass M_+, every
 // remnant mass M_- with M_- + DeltaM(M_-) = M_+, where DeltaM(M_-) is the mass the static bubble
-// around a remnant M_- carries (issue 6: "for a given seed, find every solution branch").
+// around a remnant M_- carries (every solution branch for a given seed, since the lowest B need not lie on the first
+// one found).
 //
 // Units: masses in GeV (any unit works: the search only compares masses with each other).
 //

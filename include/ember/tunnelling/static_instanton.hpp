@@ -1,6 +1,6 @@
 // Static Euclidean solutions of the Einstein-scalar equations around a black hole: the bubble of
 // true vacuum a hole can nucleate (Burda, Gregory & Moss, PRL 115 (2015) 071303; JHEP 06 (2016)
-// 025; form of the equations as in issue 6).
+// 025).
 //
 // Units: internal natural units (GeV); G = 1/M_Pl^2 unless options say otherwise.
 //

@@ -1,7 +1,7 @@
 // The Higgs potential in a thermal bath at temperature T, at leading order in the high-T
 // expansion: V_T(h) = m^2(T) h^2 / 2 + V(h), with the Standard Model thermal mass
 //   m^2(T) = T^2 (3 g2^2/16 + gY^2/16 + yt^2/4 + lambda/2)
-// (as in issue 6; e.g. Arnold & Espinosa, PRD 47 (1993) 3546, from memory), couplings at mu = T.
+// (e.g. Arnold & Espinosa, PRD 47 (1993) 3546, from memory), couplings at mu = T.
 // Units: GeV.
 #pragma once
 
