@@ -29,7 +29,9 @@ struct BounceOptions {
   double lambda6 = 0, lambda8 = 0;
   bool coleman_weinberg = false, json = false, quiet = false;
   std::string scale, coefficients, potential_table, tension, energy_gap;
-  std::string prescriptions, prefactor = "root_action", floor = "1e3 Mpl";
+  std::string prescriptions,
+      prefactor = "root_action",
+      floor = fmt::format("{} Mpl", format_real(TunnellingSetup{}.semiclassical_floor / u::planck_mass));
   double hot_bubble_volume = 1;
 };
 
@@ -260,7 +262,7 @@ Command add_bounce(CLI::App& parent) {
   app->add_option("--prescriptions", o->prescriptions,
                   "comma-separated: entropy_drop, probe_field, hot_bubble, no_seed, thin_wall");
   app->add_option("--prefactor", o->prefactor, "root_action (default) or light_crossing");
-  app->add_option("--floor", o->floor, "semiclassical floor on the seed mass (default 1e3 Mpl)");
+  app->add_option("--floor", o->floor, fmt::format("semiclassical floor on the seed mass (default {})", o->floor));
   app->add_option("--hot-bubble-volume", o->hot_bubble_volume,
                   "hot_bubble: nucleation volume in units of 4 pi r_h^3/3");
   app->add_flag("--json", o->json, "print one JSON object on stdout");

@@ -13,6 +13,7 @@
 #include "ember/core/text.hpp"
 #include "ember/evaporation/budget.hpp"
 #include "ember/evaporation/trajectory.hpp"
+#include "ember/tunnelling/prescription.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::cli {
@@ -24,7 +25,8 @@ namespace u = ember::units;
 
 struct EvaporateOptions {
   std::string mass, lifetime, age, formed_at, today = "13.787 Gyr";
-  std::string qcd_scale = "0.3 GeV", argument = "energy", cutoff = "1e3 Mpl";
+  std::string qcd_scale = fmt::format("{} GeV", format_real(MassLossOptions{}.qcd_scale)), argument = "energy",
+              cutoff = fmt::format("{} Mpl", format_real(TrajectoryOptions{}.cutoff_mass / u::planck_mass));
   std::optional<std::string> species;  // set (maybe empty) when --species is given
   std::string particles, table, trajectory;
   bool json = false, quiet = false;
@@ -38,10 +40,11 @@ struct Setup {
 Setup setup(const EvaporateOptions& o) {
   MassLossOptions options;
   options.qcd_scale = quantity_option("--qcd-scale", o.qcd_scale, u::energy);
-  // The same range the scenario key evaporation.qcd_scale allows.
-  if (!(options.qcd_scale >= 0.1 && options.qcd_scale <= 1.0))
-    throw InputError(
-        fmt::format("--qcd-scale {}: outside the allowed range; expected between 0.1 GeV and 1 GeV", o.qcd_scale));
+  // The range MassLossOptions allows (also the scenario key's), named by the option.
+  if (!(options.qcd_scale >= MassLossOptions::qcd_scale_min && options.qcd_scale <= MassLossOptions::qcd_scale_max))
+    throw InputError(fmt::format("--qcd-scale {}: outside the allowed range; expected between {} GeV and {} GeV",
+                                 o.qcd_scale, format_real(MassLossOptions::qcd_scale_min),
+                                 format_real(MassLossOptions::qcd_scale_max)));
   if (o.argument != "energy" && o.argument != "momentum")
     throw InputError(fmt::format("--greybody-argument {}: unknown; expected energy or momentum", o.argument));
   options.argument = o.argument == "momentum" ? GreybodyArgument::momentum : GreybodyArgument::energy;
@@ -136,8 +139,9 @@ int by_mass(const EvaporateOptions& o) {
   nlohmann::ordered_json warnings = nlohmann::ordered_json::array();
   if (mass < u::planck_mass)
     warnings.push_back("below the Planck mass: the semiclassical Hawking rate does not apply");
-  else if (mass < 1e3 * u::planck_mass)
-    warnings.push_back("below 1e3 M_Pl: outside the semiclassical regime (common practice)");
+  else if (const double floor = tunnelling::TunnellingSetup{}.semiclassical_floor; mass < floor)
+    warnings.push_back(fmt::format("below {} M_Pl: outside the semiclassical regime (common practice)",
+                                   format_real(floor / u::planck_mass)));
   if (mass <= s.trajectory.cutoff_mass)
     warnings.push_back("at or below --cutoff: the whole life is the analytic tail with alpha at this mass");
   j["warnings"] = warnings;
@@ -223,11 +227,13 @@ Command add_evaporate(CLI::App& parent) {
   app->add_option("--age", o->age, "--mass: time since formation, to give the mass left");
   app->add_option("--formed-at", o->formed_at, "--mass: cosmic time of formation (the age is --today minus this)");
   app->add_option("--today", o->today, "the age of the universe (default 13.787 Gyr, Planck 2018)");
-  app->add_option("--qcd-scale", o->qcd_scale,
-                  "energy above which quarks and gluons are emitted, pions below (default 0.3 GeV)");
+  app->add_option(
+      "--qcd-scale", o->qcd_scale,
+      fmt::format("energy above which quarks and gluons are emitted, pions below (default {})", o->qcd_scale));
   app->add_option("--greybody-argument", o->argument,
                   "massive species: greybody factors at the energy or the momentum");
-  app->add_option("--cutoff", o->cutoff, "numerical integration stops here; analytic tail below (default 1e3 Mpl)");
+  app->add_option("--cutoff", o->cutoff,
+                  fmt::format("numerical integration stops here; analytic tail below (default {})", o->cutoff));
   app->add_option("--species", o->species, "only these species, comma-separated names from the particle table");
   app->add_option("--particles", o->particles, "particle table (default data/particles.yaml)");
   app->add_option("--table", o->table, "greybody table (default data/greybody.tsv)");

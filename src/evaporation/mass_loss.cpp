@@ -68,8 +68,9 @@ double macgibbon_alpha_unit() {
 }
 
 void MassLossOptions::validate() const {
-  if (!(qcd_scale > 0) || !std::isfinite(qcd_scale))
-    throw InputError(fmt::format("mass-loss options: qcd_scale = {} GeV: must be a finite energy > 0", qcd_scale));
+  if (!(qcd_scale >= qcd_scale_min && qcd_scale <= qcd_scale_max))
+    throw InputError(fmt::format("mass-loss options: qcd_scale = {} GeV: must lie between {} GeV and {} GeV", qcd_scale,
+                                 qcd_scale_min, qcd_scale_max));
   if (nodes_per_decade < 5 || nodes_per_decade > 10000)
     throw InputError(fmt::format("mass-loss options: nodes_per_decade = {}: must lie in [5, 10000]", nodes_per_decade));
 }

@@ -15,6 +15,12 @@ double fubini_action(double lambda_abs) {
   return 8 * units::pi * units::pi / (3 * lambda_abs);
 }
 
+double fubini_quartic(const StandardModelPotential& pot, double mu) {
+  const double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass, x = mu * mu / mbar2;
+  const StandardModelOptions& so = pot.options();
+  return pot.running().lambda(mu) + 2.0 / 3 * so.lambda6 * x + 0.5 * so.lambda8 * x * x;
+}
+
 QuarticBounce solve_quartic_bounce(double lambda_abs, double phi0, double rel) {
   if (!(lambda_abs > 0) || !(phi0 > 0))
     throw InputError(fmt::format("quartic bounce: |lambda| = {}, phi0 = {}; expected both > 0", lambda_abs, phi0));

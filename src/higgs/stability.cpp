@@ -11,6 +11,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/higgs/fubini.hpp"
 
 namespace ember::higgs {
 
@@ -103,16 +104,10 @@ StabilityReport analyse_stability(const StandardModelPotential& pot, const Stabi
   for (double t = t0; t <= t1 && !deeper; t += grid_step) deeper = pot.value(std::exp(t)) < 0;
 
   // Unseeded decay.
-  const double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass;
-  const StandardModelOptions& so = pot.options();
-  const Fn quartic_t = [&](double t) {
-    const double mu = std::exp(t), x = mu * mu / mbar2;
-    return run.lambda(mu) + 2.0 / 3 * so.lambda6 * x + 0.5 * so.lambda8 * x * x;
-  };
   const Fn minus_log10_p = [&](double t) {
-    const double q = quartic_t(t);
+    const double q = fubini_quartic(pot, std::exp(t));
     if (q >= 0) return 1e300;
-    const double action = 8 * pi * pi / (3 * std::abs(q));
+    const double action = fubini_action(std::abs(q));
     return -(4 * (t - std::log(o.hubble_rate)) - action) / std::log(10.0);
   };
   const GridMin best = scan_min(minus_log10_p, t0, t_pl);

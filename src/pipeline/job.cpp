@@ -55,14 +55,17 @@ greybody::Table greybody_table(const EvaporationChoices& e, const JobOptions& o,
 
 void check_applicable(const Scenario& s) {
   const bool sm = std::holds_alternative<StandardModelForm>(s.standard_model.potential);
+  const bool wall = s.tunnelling.wall_tension && s.tunnelling.energy_gap;
   for (const Prescription p : s.tunnelling.prescriptions) {
-    if (p == Prescription::hot_bubble && !sm)
+    const tunnelling::PrescriptionNeeds n = tunnelling::needs(p);
+    if (n.standard_model && !sm)
       throw InputError(
-          "tunnelling.prescriptions: hot_bubble needs the Standard Model potential (its thermal mass); expected "
-          "standard_model.potential.form: standard_model, or drop hot_bubble");
-    if (p == Prescription::thin_wall && !(s.tunnelling.wall_tension && s.tunnelling.energy_gap))
-      throw InputError(
-          "tunnelling.prescriptions: thin_wall needs tunnelling.thin_wall.tension and energy_gap; expected both");
+          fmt::format("tunnelling.prescriptions: {0} needs the Standard Model potential (its thermal mass); expected "
+                      "standard_model.potential.form: standard_model, or drop {0}",
+                      name_of(p)));
+    if (n.wall && !wall)
+      throw InputError(fmt::format(
+          "tunnelling.prescriptions: {} needs tunnelling.thin_wall.tension and energy_gap; expected both", name_of(p)));
   }
 }
 

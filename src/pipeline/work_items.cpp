@@ -30,7 +30,7 @@ double expected_cost(const JobPlan& plan, const WorkItem& w) {
   const PointModel& model = plan.models[w.point];
   const Prescription p = plan.prescription(w);
   if (w.is_table) {
-    if (model.failure || (model.no_decay && p != Prescription::thin_wall)) return 0.01;  // nothing to solve
+    if (model.failure || (model.no_decay && tunnelling::needs(p).potential)) return 0.01;  // nothing to solve
     const auto& o = plan.table_options;
     const double checks = (o.points - 2) / o.midpoint_stride + 1;
     return (o.points + checks + top_search_cost) * tunnelling::relative_node_cost(p);
@@ -50,7 +50,9 @@ std::string table_work(const JobPlan& plan, const WorkItem& w) {
     r.failure = *model.failure;
     return to_text(r);
   }
-  if (model.no_decay && p != Prescription::thin_wall) return to_text(r);  // no_decay
+  // A potential without a bubble leaves nothing to compute, except for prescriptions that do not
+  // read it (thin_wall: its own wall).
+  if (model.no_decay && tunnelling::needs(p).potential) return to_text(r);
   try {
     tunnelling::TunnellingSetup setup;
     setup.potential = model.potential.get();

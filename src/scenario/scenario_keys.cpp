@@ -4,20 +4,25 @@
 // Default values and their sources:
 //   Standard Model inputs and their band sigmas: data/standard_model.yaml (PDG 2024), compiled in.
 //   Cosmology: data/cosmology.yaml (Planck 2018 VI, Fixsen 2009), compiled in.
-//   Collapse fraction gamma = 0.2: Carr, ApJ 201 (1975) 1.
+//   Collapse fraction gamma = 0.2: Carr, ApJ 201 (1975) 1 (population/counts.hpp holds it).
 //   Critical-collapse exponent 2.85 in psi ~ M^2.85 exp(-(M/Mf)^2.85): the form used by Carr,
 //     Kuhnel & Sandstad, PRD 94 (2016) 063530, after Niemeyer & Jedamzik, PRL 80 (1998) 5481
 //     (from memory).
-//   Semiclassical floor 1e3 Planck masses: common practice.
-//   QCD scale 0.3 GeV: MacGibbon & Webber, PRD 41 (1990) 3052, take Lambda_QCD ~ 250-300 MeV for
-//     the onset of quark and gluon emission (from memory).
+//   Semiclassical floor, QCD scale, trajectory cutoff, greybody grid: the physics modules' options
+//     hold them with their sources (TunnellingSetup, MassLossOptions, TrajectoryOptions,
+//     greybody::BuildOptions); the schema reads them from there.
 #include <cmath>
 #include <utility>
 
 #include "ember/core/text.hpp"
 #include "ember/cosmology/background.hpp"
+#include "ember/evaporation/mass_loss.hpp"
+#include "ember/evaporation/trajectory.hpp"
+#include "ember/greybody/table.hpp"
 #include "ember/higgs/inputs.hpp"
+#include "ember/population/counts.hpp"
 #include "ember/scenario/schema.hpp"
+#include "ember/tunnelling/prescription.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::scenario {
@@ -31,6 +36,11 @@ Range formable() {
 }
 
 using units::Sign;
+
+// A default owned by a physics module's options, as the schema writes it: value and unit.
+std::string in_planck_masses(double mass) {
+  return format_real(mass / units::planck_mass) + " Mpl";
+}
 
 Key population() {
   Key spectrum = required(
@@ -79,10 +89,10 @@ Key population() {
                                   }),
                            "");
 
-  return section(
-      "population", "the primordial black holes",
-      {spectrum, abundance,
-       number("collapse_fraction", "gamma: formation mass over the horizon mass", "0.2", above_up_to(0, 1))});
+  return section("population", "the primordial black holes",
+                 {spectrum, abundance,
+                  number("collapse_fraction", "gamma: formation mass over the horizon mass",
+                         format_real(population::ResponseContext{}.collapse_fraction), above_up_to(0, 1))});
 }
 
 std::string gev(double value) {
@@ -127,7 +137,8 @@ Key evaporation() {
   return section(
       "evaporation", "Hawking evaporation",
       {quantity("qcd_scale", "confinement scale: quarks and gluons are emitted at energies above it, pions below",
-                units::energy, "GeV", "0.3 GeV", between(0.1, 1)),
+                units::energy, "GeV", format_real(evaporation::MassLossOptions{}.qcd_scale) + " GeV",
+                between(evaporation::MassLossOptions::qcd_scale_min, evaporation::MassLossOptions::qcd_scale_max)),
        option("greybody_argument", "massive species: evaluate greybody factors at the energy or the momentum",
               {"energy", "momentum"}, "energy"),
        option("greybody_table",
@@ -137,21 +148,31 @@ Key evaporation() {
        integer("greybody_points",
                "computed: grid points per greybody mode, log-uniform in x = GM omega/c^3 over "
                "[1e-3, 5]",
-               "161", between(8, 10000)),
+               std::to_string(greybody::BuildOptions{}.points_per_mode), between(8, 10000)),
        quantity("cutoff_mass", "mass where numerical integration stops and the analytic end takes over", units::mass,
-                "Mpl", "1e3 Mpl", at_least(1))});
+                "Mpl", in_planck_masses(evaporation::TrajectoryOptions{}.cutoff_mass), at_least(1))});
+}
+
+// Every prescription the tunnelling module has, by its own names; by default those that need
+// nothing beyond the potential (not a user's thin wall).
+std::pair<std::vector<std::string>, std::vector<std::string>> prescription_names() {
+  std::vector<std::string> all, standard;
+  for (const auto p : tunnelling::all_prescriptions) {
+    all.push_back(tunnelling::name_of(p));
+    if (!tunnelling::needs(p).wall) standard.push_back(tunnelling::name_of(p));
+  }
+  return {all, standard};
 }
 
 Key tunnelling() {
+  const auto [all, standard] = prescription_names();
   return section(
       "tunnelling", "seeded vacuum decay",
-      {option_list("prescriptions", "the rate prescriptions to compare, side by side",
-                   {"entropy_drop", "probe_field", "hot_bubble", "no_seed", "thin_wall"},
-                   {"entropy_drop", "probe_field", "hot_bubble", "no_seed"}),
+      {option_list("prescriptions", "the rate prescriptions to compare, side by side", all, standard),
        option("prefactor", "rate prefactor A in A exp(-B): root_action = (B/2pi)^(1/2)/(G M), light_crossing = 1/(G M)",
               {"root_action", "light_crossing"}, "root_action"),
        quantity("semiclassical_floor", "seeds below this mass are flagged as outside the semiclassical regime",
-                units::mass, "Mpl", "1e3 Mpl", at_least(1)),
+                units::mass, "Mpl", in_planck_masses(tunnelling::TunnellingSetup{}.semiclassical_floor), at_least(1)),
        number("hot_bubble_volume", "hot_bubble: nucleation volume in units of the horizon volume 4 pi r_h^3 / 3", "1",
               above(0)),
        section("thin_wall", "thin_wall: the wall of a user's thin-wall potential",

@@ -8,6 +8,7 @@
 
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
+#include "ember/higgs/fubini.hpp"
 #include "ember/tunnelling/flat_bounce.hpp"
 #include "ember/tunnelling/remnant_branches.hpp"
 #include "ember/tunnelling/thermal_potential.hpp"
@@ -245,15 +246,12 @@ ActionPoint no_seed(const TunnellingSetup& s, double seed) {
   if (s.standard_model) {
     // S = 8 pi^2 / (3 |q(mu)|) at the mu maximising mu^4 e^{-S} (the higgs module's prescription).
     const higgs::Running& run = s.standard_model->running();
-    const higgs::StandardModelOptions& so = s.standard_model->options();
-    const double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass;
     double best = -INFINITY, best_s = INFINITY, best_mu = 0;
     const double t0 = std::log(run.mu_min()), t1 = std::log(std::min(run.mu_max(), units::planck_mass));
     for (double t = t0; t <= t1; t += 0.005) {
-      const double mu = std::exp(t), x = mu * mu / mbar2;
-      const double q = run.lambda(mu) + 2.0 / 3 * so.lambda6 * x + 0.5 * so.lambda8 * x * x;
+      const double mu = std::exp(t), q = higgs::fubini_quartic(*s.standard_model, mu);
       if (q >= 0) continue;
-      const double action = 8 * pi * pi / (3 * std::abs(q)), log_rate = 4 * t - action;
+      const double action = higgs::fubini_action(std::abs(q)), log_rate = 4 * t - action;
       if (log_rate > best) {
         best = log_rate;
         best_s = action;
@@ -313,6 +311,14 @@ StaticOptions static_options(const TunnellingSetup& s, const ActionEffort& effor
   o.residual_check = effort.residual_check;
   if (effort.rough) o.relative_tolerance = o.shooting_tolerance = rough_tolerance;
   return o;
+}
+
+PrescriptionNeeds needs(Prescription p) {
+  PrescriptionNeeds n;
+  n.potential = p != Prescription::thin_wall;
+  n.standard_model = p == Prescription::hot_bubble;
+  n.wall = p == Prescription::thin_wall;
+  return n;
 }
 
 double relative_node_cost(Prescription p) {

@@ -30,7 +30,10 @@ namespace ember::evaporation {
 enum class GreybodyArgument { energy, momentum };
 
 struct MassLossOptions {
-  // Confinement scale (GeV): free quarks and gluons above it in energy, pions below.
+  // Confinement scale (GeV): free quarks and gluons above it in energy, pions below. 0.3 GeV:
+  // MacGibbon & Webber, PRD 41 (1990) 3052, take Lambda_QCD ~ 250-300 MeV for the onset of quark
+  // and gluon emission (from memory); the range is the plausible span of that onset.
+  static constexpr double qcd_scale_min = 0.1, qcd_scale_max = 1.0;
   double qcd_scale = 0.3;
   GreybodyArgument argument = GreybodyArgument::energy;
   // alpha is tabulated at this many nodes per decade of mass.

@@ -10,10 +10,17 @@
 #pragma once
 
 #include "ember/core/estimate.hpp"
+#include "ember/higgs/potential.hpp"
 
 namespace ember::higgs {
 
 double fubini_action(double lambda_abs);
+
+// The quartic the unseeded Fubini bounce of size R sees, at mu = 1/R: the MS-bar lambda(mu) plus
+// the Planck-suppressed operators evaluated at h = mu,
+//   q = lambda(mu) + (2/3) lambda6 mu^2/Mbar^2 + (1/2) lambda8 mu^4/Mbar^4,
+// so that V = q h^4/4 there (potential.hpp's operator normalisation).
+double fubini_quartic(const StandardModelPotential& potential, double mu);
 
 struct QuarticBounce {
   Estimate action;

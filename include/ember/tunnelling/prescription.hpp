@@ -40,6 +40,13 @@ inline constexpr Prescription all_prescriptions[] = {Prescription::entropy_drop,
 std::string name_of(Prescription p);
 std::optional<Prescription> prescription_named(const std::string& name);
 std::string assumptions(Prescription p);  // one paragraph
+// What a prescription takes from the setup (TunnellingSetup), so callers need not know names.
+struct PrescriptionNeeds {
+  bool potential = true;        // reads the potential (thin_wall reads only its wall)
+  bool standard_model = false;  // the Standard Model potential itself (hot_bubble: its thermal mass)
+  bool wall = false;            // a thin wall's tension and energy gap (TunnellingSetup::thin_wall)
+};
+PrescriptionNeeds needs(Prescription p);
 // The cost of one B(M) node under this prescription relative to one probe_field node (a static
 // bubble solve), for progress estimates only. Measured on 30-node Standard Model tables
 // (docs/benchmarks.md): entropy_drop and hot_bubble cost about as much as probe_field, no_seed
