@@ -1,17 +1,17 @@
 #include "ember/cosmology/background.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_integration.h>
-#include <gsl/gsl_spline.h>
 #include <yaml-cpp/yaml.h>
 
 #include <cmath>
 #include <functional>
+#include <optional>
 #include <vector>
 
 #include "ember/core/embedded.hpp"
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
 #include "ember/units/quantity.hpp"
@@ -55,24 +55,11 @@ void Parameters::validate() const {
 
 struct Background::Tables {
   std::vector<double> ln_a, ln_t, ln_chi_plus, ln_temp;
-  std::shared_ptr<gsl_spline> t_of_a, a_of_t, chi_of_a;
-  double chi_total = 0;  // particle horizon
+  std::optional<Spline> t_of_a, a_of_t, chi_of_a;  // natural cubics in ln a, ln t
+  double chi_total = 0;                            // particle horizon
 };
 
-namespace {
-std::shared_ptr<gsl_spline> spline(const std::vector<double>& x, const std::vector<double>& y) {
-  std::shared_ptr<gsl_spline> s(gsl_spline_alloc(gsl_interp_cspline, x.size()), gsl_spline_free);
-  gsl_spline_init(s.get(), x.data(), y.data(), x.size());
-  return s;
-}
-double qk21(const std::function<double(double)>& f, double lo, double hi) {
-  gsl_function g{[](double x, void* p) { return (*static_cast<const std::function<double(double)>*>(p))(x); },
-                 const_cast<std::function<double(double)>*>(&f)};
-  double r = 0, e = 0, ra = 0, rs = 0;
-  gsl_integration_qk21(&g, lo, hi, &r, &e, &ra, &rs);
-  return r;
-}
-}  // namespace
+namespace {}  // namespace
 
 Background::Background(const Parameters& parameters, DegreesOfFreedom dof) : p_(parameters), dof_(std::move(dof)) {
   if (!(p_.cmb_temperature > 0)) p_.cmb_temperature = 2.7255 * units::kelvin;
@@ -96,9 +83,10 @@ Background::Background(const Parameters& parameters, DegreesOfFreedom dof) : p_(
   const std::function<double(double)> dchi = [&](double u) { return 1 / (std::exp(u) * hubble_rate(std::exp(u))); };
   std::vector<double> time(static_cast<std::size_t>(n)), chi(static_cast<std::size_t>(n));
   time[0] = 1 / (2 * hubble_rate(std::exp(t->ln_a[0])));
-  for (std::size_t i = 1; i < time.size(); ++i) time[i] = time[i - 1] + qk21(dt, t->ln_a[i - 1], t->ln_a[i]);
+  for (std::size_t i = 1; i < time.size(); ++i) time[i] = time[i - 1] + gauss_kronrod21(dt, t->ln_a[i - 1], t->ln_a[i]);
   chi.back() = 0;
-  for (std::size_t i = chi.size() - 1; i-- > 0;) chi[i] = chi[i + 1] + qk21(dchi, t->ln_a[i], t->ln_a[i + 1]);
+  for (std::size_t i = chi.size() - 1; i-- > 0;)
+    chi[i] = chi[i + 1] + gauss_kronrod21(dchi, t->ln_a[i], t->ln_a[i + 1]);
   // Comoving distance before the first node (radiation era, 1/(aH) ~ a): 1/(a H) there.
   t->chi_total = chi[0] + 1 / (std::exp(t->ln_a[0]) * hubble_rate(std::exp(t->ln_a[0])));
   t->ln_t.resize(time.size());
@@ -110,9 +98,9 @@ Background::Background(const Parameters& parameters, DegreesOfFreedom dof) : p_(
     t->ln_chi_plus[i] = std::log(chi[i] + 1e-6 / h0);
     t->ln_temp[i] = std::log(temperature(std::exp(t->ln_a[i])));
   }
-  t->t_of_a = spline(t->ln_a, t->ln_t);
-  t->a_of_t = spline(t->ln_t, t->ln_a);
-  t->chi_of_a = spline(t->ln_a, t->ln_chi_plus);
+  t->t_of_a.emplace(Spline::Kind::cubic, t->ln_a, t->ln_t, "background t(a)");
+  t->a_of_t.emplace(Spline::Kind::cubic, t->ln_t, t->ln_a, "background a(t)");
+  t->chi_of_a.emplace(Spline::Kind::cubic, t->ln_a, t->ln_chi_plus, "background chi(a)");
   t_ = t;
 }
 
@@ -147,7 +135,7 @@ double Background::hubble_rate(double a) const {
 double Background::time(double a) const {
   const double u = std::log(a);
   if (u <= t_->ln_a.front()) return 1 / (2 * hubble_rate(a));
-  return std::exp(gsl_spline_eval(t_->t_of_a.get(), std::min(u, 0.0), nullptr));
+  return std::exp(t_->t_of_a->value(std::min(u, 0.0)));
 }
 
 double Background::scale_factor(double time) const {
@@ -157,7 +145,7 @@ double Background::scale_factor(double time) const {
     return std::exp(t_->ln_a.front()) * std::sqrt(time / std::exp(t_->ln_t.front()));
   }
   if (u >= t_->ln_t.back()) return 1.0;
-  return std::exp(gsl_spline_eval(t_->a_of_t.get(), u, nullptr));
+  return std::exp(t_->a_of_t->value(u));
 }
 
 double Background::lightcone_radius(double time) const {
@@ -169,7 +157,7 @@ double Background::lightcone_radius(double time) const {
   // Before the first node (radiation era) the light travelled 1/(a H) since the big bang.
   if (u <= t_->ln_a.front()) return t_->chi_total - 1 / (a * hubble_rate(a));
   const double h0 = p_.hubble * h100;
-  return std::max(0.0, std::exp(gsl_spline_eval(t_->chi_of_a.get(), std::min(u, 0.0), nullptr)) - 1e-6 / h0);
+  return std::max(0.0, std::exp(t_->chi_of_a->value(std::min(u, 0.0))) - 1e-6 / h0);
 }
 
 double Background::particle_horizon() const {

@@ -1,30 +1,24 @@
 #include "ember/cosmology/degrees_of_freedom.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_spline.h>
 
 #include <cmath>
 #include <fstream>
+#include <memory>
 #include <sstream>
 #include <vector>
 
 #include "ember/core/data_files.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/text.hpp"
 
 namespace ember::cosmology {
 
+// Steffen's monotone cubic in ln T: g_* has no overshoot across the QCD and electroweak steps.
 struct DegreesOfFreedom::Splines {
-  std::shared_ptr<gsl_spline> rho, s;
+  Spline rho, s;
 };
-
-namespace {
-std::shared_ptr<gsl_spline> make(const std::vector<double>& x, const std::vector<double>& y) {
-  std::shared_ptr<gsl_spline> sp(gsl_spline_alloc(gsl_interp_steffen, x.size()), gsl_spline_free);
-  gsl_spline_init(sp.get(), x.data(), y.data(), x.size());
-  return sp;
-}
-}  // namespace
 
 DegreesOfFreedom DegreesOfFreedom::load(const std::filesystem::path& file) {
   std::ifstream in(file);
@@ -57,10 +51,8 @@ DegreesOfFreedom DegreesOfFreedom::load(const std::filesystem::path& file) {
   d.low_s_ = s.front();
   d.high_rho_ = rho.back();
   d.high_s_ = s.back();
-  auto sp = std::make_shared<Splines>();
-  sp->rho = make(ln_t, rho);
-  sp->s = make(ln_t, s);
-  d.s_ = sp;
+  d.s_ = std::make_shared<Splines>(Splines{Spline(Spline::Kind::steffen, ln_t, rho, "g_*rho(T)"),
+                                           Spline(Spline::Kind::steffen, ln_t, s, "g_*s(T)")});
   return d;
 }
 
@@ -76,13 +68,13 @@ void DegreesOfFreedom::set_low_temperature_limit(double g_rho0, double g_s0) {
 double DegreesOfFreedom::g_rho(double t) const {
   if (t <= t_min_) return low_rho_;
   if (t >= t_max_) return high_rho_;
-  return gsl_spline_eval(s_->rho.get(), std::log(t), nullptr);
+  return s_->rho.value(std::log(t));
 }
 
 double DegreesOfFreedom::g_s(double t) const {
   if (t <= t_min_) return low_s_;
   if (t >= t_max_) return high_s_;
-  return gsl_spline_eval(s_->s.get(), std::log(t), nullptr);
+  return s_->s.value(std::log(t));
 }
 
 }  // namespace ember::cosmology

@@ -3,7 +3,6 @@
 #include <fmt/format.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_integration.h>
-#include <gsl/gsl_spline.h>
 
 #include <chrono>
 #include <cmath>
@@ -13,6 +12,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/progress.hpp"
 #include "ember/core/record.hpp"
 #include "ember/units/constants.hpp"
@@ -42,20 +42,6 @@ double a_of(double v) {
   return v < 0 ? std::exp(v) : v + 1;
 }
 
-double qk21(const std::function<double(double)>& f, double lo, double hi) {
-  gsl_function g{[](double x, void* p) { return (*static_cast<const std::function<double(double)>*>(p))(x); },
-                 const_cast<std::function<double(double)>*>(&f)};
-  double result = 0, abserr = 0, resabs = 0, resasc = 0;
-  gsl_integration_qk21(&g, lo, hi, &result, &abserr, &resabs, &resasc);
-  return result;
-}
-
-using SplinePtr = std::shared_ptr<gsl_spline>;
-SplinePtr make_spline(const std::vector<double>& x, const std::vector<double>& y) {
-  SplinePtr s(gsl_spline_alloc(gsl_interp_cspline, x.size()), gsl_spline_free);
-  gsl_spline_init(s.get(), x.data(), y.data(), x.size());
-  return s;
-}
 }  // namespace
 
 double hawking_temperature(double mass) {
@@ -80,7 +66,7 @@ struct MassLoss::Kernel {
   int twice_spin = 0;
   bool fermion = false;
   std::shared_ptr<const greybody::Table> greybody;
-  SplinePtr ln_j;  // ln J against v
+  std::optional<Spline> ln_j;  // ln J against v (natural cubic)
   double j_at_min = 0;
 
   double weighted(double x) const { return greybody->weighted_sum(twice_spin, x).value; }
@@ -90,7 +76,7 @@ struct MassLoss::Kernel {
   double J(double a) const {
     if (a <= tolerance::kernel_a_min) return j_at_min;
     if (a >= tolerance::kernel_a_max) return 0.0;
-    return std::exp(gsl_spline_eval(ln_j.get(), v_of(a), nullptr));
+    return std::exp(ln_j->value(v_of(a)));
   }
 
   // (1/2pi) int dx x S(p(x)) th(x) over lo <= x < hi, p = sqrt(x^2 - m^2): substituting p,
@@ -106,8 +92,7 @@ struct MassLoss::Kernel {
     };
     gsl_function g{[](double x, void* q) { return (*static_cast<const std::function<double(double)>*>(q))(x); },
                    const_cast<std::function<double(double)>*>(&f)};
-    std::unique_ptr<gsl_integration_workspace, decltype(&gsl_integration_workspace_free)> w(
-        gsl_integration_workspace_alloc(200), gsl_integration_workspace_free);
+    const IntegrationWorkspace w = integration_workspace(200);
     double result = 0, abserr = 0;
     use_gsl_status_codes();
     const int status = gsl_integration_qag(&g, p_lo, p_hi, 0.0, tolerance::window_quadrature_relative, 200,
@@ -130,21 +115,21 @@ MassLoss::Kernel build_kernel(int twice_spin, const std::shared_ptr<const greybo
   const double v_lo = v_of(tolerance::kernel_a_min), v_hi = v_of(tolerance::kernel_a_max);
   const int n = static_cast<int>(std::ceil((v_hi - v_lo) / tolerance::kernel_node_spacing)) + 1;
   std::vector<double> v(static_cast<std::size_t>(n)), ln_j(static_cast<std::size_t>(n));
-  double cumulative = qk21(f, tolerance::kernel_a_max, tolerance::kernel_a_max + 3.0);
+  double cumulative = gauss_kronrod21(f, tolerance::kernel_a_max, tolerance::kernel_a_max + 3.0);
   for (int i = n - 1; i >= 0; --i) {
     const auto I = static_cast<std::size_t>(i);
     v[I] = v_lo + (v_hi - v_lo) * i / (n - 1);
-    if (i < n - 1) cumulative += qk21(f, a_of(v[I]), a_of(v[I + 1]));
+    if (i < n - 1) cumulative += gauss_kronrod21(f, a_of(v[I]), a_of(v[I + 1]));
     ln_j[I] = std::log(cumulative);
   }
-  k.ln_j = make_spline(v, ln_j);
+  k.ln_j.emplace(Spline::Kind::cubic, v, ln_j, "emission kernel J(a)");
   k.j_at_min = std::exp(ln_j.front());
   return k;
 }
 }  // namespace
 
 struct MassLoss::Tabulated {
-  SplinePtr ln_alpha;  // against ln M (M in GeV)
+  std::optional<Spline> ln_alpha;  // against ln M (M in GeV), natural cubic
   std::vector<double> ln_alpha_nodes;
   double ln_m_lo = 0, ln_m_hi = 0, alpha_lo = 0, alpha_hi = 0;
 };
@@ -180,7 +165,7 @@ double MassLoss::alpha(double mass) const {
   if (u >= table_->ln_m_hi) return table_->alpha_hi;
   // Module boundary (no NaN leaves a module): alpha leaves the evaporation module finite, or not at all.
   return require_finite(
-      std::exp(gsl_spline_eval(table_->ln_alpha.get(), u, nullptr)), "evaporation: mass-loss table", "alpha(M)",
+      std::exp(table_->ln_alpha->value(u)), "evaporation: mass-loss table", "alpha(M)",
       [&] { return fmt::format("M = {:.6e} g", mass / units::gram); },
       "rebuilding the table (--no-cache) or a mass inside 1e-6 g to 1e50 g");
 }
@@ -246,7 +231,7 @@ MassLoss::MassLoss(const greybody::Table& greybody, ParticleSet particles, const
     ln_a[I] = std::log(a);
     progress.advance(i + 1);
   }
-  t->ln_alpha = make_spline(u, ln_a);
+  t->ln_alpha.emplace(Spline::Kind::cubic, u, ln_a, "alpha(M) table");
   t->ln_alpha_nodes = ln_a;
   t->alpha_lo = std::exp(ln_a.front());
   t->alpha_hi = std::exp(ln_a.back());

@@ -1,13 +1,12 @@
 #include "ember/evaporation/trajectory.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_roots.h>
 
 #include <array>
 #include <cmath>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/odeint.hpp"
 #include "ember/units/constants.hpp"
 
@@ -144,18 +143,11 @@ double mass_with_lifetime(const MassLoss& ml, double lifetime, const TrajectoryO
                     "between {:.3g} s and {:.3g} s",
                     lifetime / units::second, Trajectory(ml, std::exp(lo), options).lifetime() / units::second,
                     Trajectory(ml, std::exp(hi), options).lifetime() / units::second));
-  gsl_function f{lifetime_residual, &root};
-  std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
-                                                                        gsl_root_fsolver_free);
-  gsl_root_fsolver_set(s.get(), &f, lo, hi);
-  for (int i = 0; i < 200; ++i) {
-    gsl_root_fsolver_iterate(s.get());
-    lo = gsl_root_fsolver_x_lower(s.get());
-    hi = gsl_root_fsolver_x_upper(s.get());
-    if (gsl_root_test_interval(lo, hi, 1e-13, 0) == GSL_SUCCESS) return std::exp(gsl_root_fsolver_root(s.get()));
-  }
+  // ln M to 1e-13: the mass to about 1e-13 relative.
+  const BrentResult r = brent_root([&](double u) { return lifetime_residual(u, &root); }, lo, hi, 1e-13);
+  if (r.converged) return std::exp(r.x);
   throw NumericalError("lifetime root (GSL Brent)",
-                       fmt::format("no convergence: ln M in [{}, {}] after 200 iterations", lo, hi));
+                       fmt::format("no convergence: ln M in [{}, {}] after 200 iterations", r.lower, r.upper));
 }
 
 }  // namespace ember::evaporation

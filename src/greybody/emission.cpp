@@ -10,6 +10,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::greybody {
@@ -40,8 +41,7 @@ double integrand(double x, void* p) {
 }
 
 double integrate(const Integrand& in, double* abserr) {
-  std::unique_ptr<gsl_integration_workspace, decltype(&gsl_integration_workspace_free)> w(
-      gsl_integration_workspace_alloc(workspace_size), gsl_integration_workspace_free);
+  const IntegrationWorkspace w = integration_workspace(workspace_size);
   gsl_function f{integrand, const_cast<Integrand*>(&in)};
   double result = 0;
   use_gsl_status_codes();

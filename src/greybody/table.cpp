@@ -2,13 +2,13 @@
 #include "ember/greybody/table.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_spline.h>
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 
 namespace ember::greybody {
 
@@ -18,9 +18,9 @@ struct Table::Curve {
   double low_coefficient = 0, low_relative_error = 0;  // Gamma = C x^p below x_min
   double solver_relative_error = 0;                    // largest error/Gamma of the rows
   double end_reflection = 0;                           // |R|^2 at x_end
-  std::shared_ptr<gsl_spline> spline;                  // L = ln(Gamma/|R|^2) against ln x
+  std::optional<Spline> spline;                        // L = ln(Gamma/|R|^2) against ln x (natural cubic)
 
-  double logit(double x) const { return gsl_spline_eval(spline.get(), std::log(x), nullptr); }
+  double logit(double x) const { return spline->value(std::log(x)); }
 };
 
 namespace {
@@ -42,12 +42,8 @@ std::shared_ptr<const Table::Curve> make_curve(const std::vector<TableRow>& rows
     logit[i] = std::log(r.transmission) - std::log(r.reflection);
     c->solver_relative_error = std::max(c->solver_relative_error, r.error / r.transmission);
   }
-  c->spline.reset(gsl_spline_alloc(gsl_interp_cspline, n), gsl_spline_free);
-  if (gsl_spline_init(c->spline.get(), ln_x.data(), logit.data(), n) != GSL_SUCCESS)
-    throw InputError(
-        fmt::format("greybody table: spin {}, 2l = {}: the spline through {} rows failed; expected "
-                    "increasing x",
-                    spin_text(first.twice_spin), first.twice_l, n));
+  c->spline.emplace(Spline::Kind::cubic, ln_x, logit,
+                    fmt::format("greybody table: spin {}, 2l = {}", spin_text(first.twice_spin), first.twice_l));
   c->x_min = first.x;
   c->x_end = rows[end - 1].x;
   c->end_reflection = rows[end - 1].reflection;
@@ -59,7 +55,7 @@ std::shared_ptr<const Table::Curve> make_curve(const std::vector<TableRow>& rows
                     "expected transmissions and reflections of physical size",
                     spin_text(first.twice_spin), first.twice_l, first.x));
   // d ln Gamma / d ln x = (1 - Gamma) dL/d ln x.
-  const double slope = (1 - first.transmission) * gsl_spline_eval_deriv(c->spline.get(), ln_x[0], nullptr);
+  const double slope = (1 - first.transmission) * c->spline->slope(ln_x[0]);
   c->low_relative_error = std::abs(slope - c->power);
   return c;
 }

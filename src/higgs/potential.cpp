@@ -1,7 +1,6 @@
 #include "ember/higgs/potential.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_spline.h>
 
 #include <algorithm>
 #include <cmath>
@@ -9,6 +8,7 @@
 #include <sstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/hash.hpp"
 #include "ember/core/text.hpp"
 #include "ember/core/uniform_cubic.hpp"
@@ -19,12 +19,6 @@ namespace ember::higgs {
 namespace {
 using units::pi;
 constexpr double mbar2 = units::reduced_planck_mass * units::reduced_planck_mass;
-using SplinePtr = std::shared_ptr<gsl_spline>;
-SplinePtr make_spline(const std::vector<double>& x, const std::vector<double>& y) {
-  SplinePtr s(gsl_spline_alloc(gsl_interp_cspline, x.size()), gsl_spline_free);
-  gsl_spline_init(s.get(), x.data(), y.data(), x.size());
-  return s;
-}
 }  // namespace
 
 double Potential::quartic(double h) const {
@@ -183,7 +177,7 @@ std::string PolynomialPotential::description() const {
 
 // --- table -------------------------------------------------------------------------------------
 struct TabulatedPotential::Spline {
-  SplinePtr v;
+  ember::Spline v;  // V(phi), natural cubic
 };
 
 TabulatedPotential::TabulatedPotential(const std::filesystem::path& file) : file_(file.string()) {
@@ -212,9 +206,7 @@ TabulatedPotential::TabulatedPotential(const std::filesystem::path& file) : file
   phi_min_ = phi.front();
   phi_max_ = phi.back();
   content_fingerprint_ = fingerprint(all);
-  auto s = std::make_shared<Spline>();
-  s->v = make_spline(phi, v);
-  spline_ = s;
+  spline_ = std::make_shared<Spline>(Spline{ember::Spline(ember::Spline::Kind::cubic, phi, v, file_)});
 }
 
 double TabulatedPotential::checked(double h) const {
@@ -224,13 +216,13 @@ double TabulatedPotential::checked(double h) const {
   return h;
 }
 double TabulatedPotential::value(double h) const {
-  return gsl_spline_eval(spline_->v.get(), checked(h), nullptr);
+  return spline_->v.value(checked(h));
 }
 double TabulatedPotential::slope(double h) const {
-  return gsl_spline_eval_deriv(spline_->v.get(), checked(h), nullptr);
+  return spline_->v.slope(checked(h));
 }
 double TabulatedPotential::curvature(double h) const {
-  return gsl_spline_eval_deriv2(spline_->v.get(), checked(h), nullptr);
+  return spline_->v.curvature(checked(h));
 }
 std::string TabulatedPotential::description() const {
   return "table " + file_;

@@ -1,13 +1,13 @@
 #include "ember/higgs/running.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_spline.h>
 
 #include <algorithm>
 #include <array>
 #include <cmath>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/odeint.hpp"
 
 namespace ember::higgs {
@@ -27,13 +27,12 @@ using State = std::array<double, 6>;  // g1, g2, g3, yt, lambda, Gamma
 Couplings couplings_of(const State& s) {
   return {s[0], s[1], s[2], s[3], s[4]};
 }
-using SplinePtr = std::shared_ptr<gsl_spline>;
 }  // namespace
 
 struct Running::Splines {
   double t0 = 0, t1 = 0;
-  std::array<SplinePtr, 6> of;  // one per state component
-  double eval(int i, double t) const { return gsl_spline_eval(of[static_cast<std::size_t>(i)].get(), t, nullptr); }
+  std::vector<Spline> of;  // one per state component, natural cubic in t = ln mu
+  double eval(int i, double t) const { return of[static_cast<std::size_t>(i)].value(t); }
 };
 
 Running::Running(const Inputs& inputs, const RunOptions& options) : inputs_(inputs), options_(options) {
@@ -81,8 +80,7 @@ Running::Running(const Inputs& inputs, const RunOptions& options) : inputs_(inpu
       t[i] = times[2 * i];
       y[i] = states[2 * i][static_cast<std::size_t>(k)];
     }
-    sp->of[static_cast<std::size_t>(k)].reset(gsl_spline_alloc(gsl_interp_cspline, n), gsl_spline_free);
-    gsl_spline_init(sp->of[static_cast<std::size_t>(k)].get(), t.data(), y.data(), n);
+    sp->of.emplace_back(Spline::Kind::cubic, t, y, "running couplings");
   }
   for (std::size_t i = 1; i < times.size(); i += 2)
     summary_.max_midpoint_error = std::max(summary_.max_midpoint_error, std::abs(sp->eval(4, times[i]) - states[i][4]));

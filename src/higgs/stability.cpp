@@ -1,9 +1,6 @@
 #include "ember/higgs/stability.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_min.h>
-#include <gsl/gsl_roots.h>
 
 #include <cmath>
 #include <functional>
@@ -11,6 +8,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/higgs/fubini.hpp"
 
 namespace ember::higgs {
@@ -30,40 +28,19 @@ using units::pi;
 constexpr double grid_step = 0.01;  // scan in ln mu before refining
 
 using Fn = std::function<double(double)>;
-double call(double x, void* p) {
-  return (*static_cast<const Fn*>(p))(x);
-}
 
-// Minimum of f(t) near the grid minimum t_grid, refined by Brent's minimiser within one step.
+// Minimum of f(t) near the grid minimum t_grid, refined by Brent's minimiser within one step, to
+// 1e-10 in ln mu.
 std::pair<double, double> refine_minimum(const Fn& f, double t_grid, double lo, double hi) {
   const double a = std::max(lo, t_grid - grid_step), b = std::min(hi, t_grid + grid_step);
   if (!(f(t_grid) < f(a) && f(t_grid) < f(b))) return {t_grid, f(t_grid)};  // at an end of the range
-  std::unique_ptr<gsl_min_fminimizer, decltype(&gsl_min_fminimizer_free)> m(
-      gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent), gsl_min_fminimizer_free);
-  gsl_function g{call, const_cast<Fn*>(&f)};
-  gsl_min_fminimizer_set(m.get(), &g, t_grid, a, b);
-  for (int i = 0; i < 100; ++i) {
-    gsl_min_fminimizer_iterate(m.get());
-    if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(m.get()), gsl_min_fminimizer_x_upper(m.get()), 1e-10, 0) ==
-        GSL_SUCCESS)
-      break;
-  }
-  const double t = gsl_min_fminimizer_x_minimum(m.get());
+  const double t = brent_minimum(f, t_grid, a, b, 1e-10).x;
   return {t, f(t)};
 }
 
+// A sign change of f, to 1e-12 in ln mu.
 double refine_root(const Fn& f, double a, double b) {
-  std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
-                                                                        gsl_root_fsolver_free);
-  gsl_function g{call, const_cast<Fn*>(&f)};
-  gsl_root_fsolver_set(s.get(), &g, a, b);
-  for (int i = 0; i < 200; ++i) {
-    gsl_root_fsolver_iterate(s.get());
-    if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()), 1e-12, 0) ==
-        GSL_SUCCESS)
-      break;
-  }
-  return gsl_root_fsolver_root(s.get());
+  return brent_root(f, a, b, 1e-12).x;
 }
 
 struct GridMin {
@@ -148,20 +125,8 @@ double critical_top_mass(const Inputs& inputs, const RunOptions& run, const Stab
     throw NumericalError(
         "critical top mass (GSL Brent)",
         fmt::format("lambda_min does not change sign over M_t in [{}, {}] GeV ({:.4g}, {:.4g})", lo, hi, f_lo, f_hi));
-  use_gsl_status_codes();
-  std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
-                                                                        gsl_root_fsolver_free);
-  gsl_function g{call, const_cast<Fn*>(&lambda_min)};
-  gsl_root_fsolver_set(s.get(), &g, lo, hi);
-  double root = 0.5 * (lo + hi);
-  for (int i = 0; i < 100; ++i) {
-    gsl_root_fsolver_iterate(s.get());
-    root = gsl_root_fsolver_root(s.get());
-    if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()), 1e-6, 0) ==
-        GSL_SUCCESS)
-      break;
-  }
-  return root;
+  // M_t to 1e-6 GeV, far below the inputs' own uncertainty.
+  return brent_root(lambda_min, lo, hi, 1e-6, 100).x;
 }
 
 }  // namespace ember::higgs

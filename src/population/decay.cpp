@@ -10,6 +10,7 @@
 
 #include "ember/core/errors.hpp"
 #include "ember/core/gsl_status.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::population {
@@ -20,8 +21,7 @@ double qag(const std::function<double(double)>& f, double lo, double hi, double 
   if (!(hi > lo)) return 0.0;
   gsl_function g{[](double x, void* p) { return (*static_cast<const std::function<double(double)>*>(p))(x); },
                  const_cast<std::function<double(double)>*>(&f)};
-  std::unique_ptr<gsl_integration_workspace, decltype(&gsl_integration_workspace_free)> w(
-      gsl_integration_workspace_alloc(1000), gsl_integration_workspace_free);
+  const IntegrationWorkspace w = integration_workspace(1000);
   double r = 0, e = 0;
   use_gsl_status_codes();
   const int status = gsl_integration_qag(&g, lo, hi, 0.0, rel, 1000, GSL_INTEG_GAUSS31, w.get(), &r, &e);

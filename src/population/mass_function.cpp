@@ -2,13 +2,14 @@
 
 #include <fmt/format.h>
 #include <gsl/gsl_sf_gamma.h>
-#include <gsl/gsl_spline.h>
 
 #include <cmath>
 #include <fstream>
+#include <optional>
 #include <sstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/input_file.hpp"
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
@@ -99,13 +100,12 @@ class Tabulated final : public MassFunction {
     if (!(total > 0) || !std::isfinite(total))
       throw InputError(fmt::format("{}: psi integrates to {}; expected a positive total", file_, total));
     for (double& p : psi_) p /= total;
-    spline_.reset(gsl_spline_alloc(gsl_interp_linear, ln_m_.size()), gsl_spline_free);
-    gsl_spline_init(spline_.get(), ln_m_.data(), psi_.data(), ln_m_.size());
+    spline_.emplace(Spline::Kind::linear, ln_m_, psi_, file_);
   }
   double psi(double m) const override {
     const double u = std::log(m);
     if (u < ln_m_.front() || u > ln_m_.back()) return 0.0;
-    return gsl_spline_eval(spline_.get(), u, nullptr);
+    return spline_->value(u);
   }
   double low() const override { return std::exp(ln_m_.front()); }
   double high() const override { return std::exp(ln_m_.back()); }
@@ -115,7 +115,7 @@ class Tabulated final : public MassFunction {
  private:
   std::vector<double> ln_m_, psi_;
   std::string file_;
-  std::shared_ptr<gsl_spline> spline_;
+  std::optional<Spline> spline_;  // psi linear in ln M, as normalised above
 };
 
 }  // namespace

@@ -1,14 +1,15 @@
 #include "ember/tunnelling/action_table.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_interp.h>
 
 #include <algorithm>
 #include <chrono>
 #include <cmath>
+#include <optional>
 #include <sstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/parallel.hpp"
 #include "ember/core/record.hpp"
 
@@ -26,23 +27,22 @@ void ActionTableOptions::validate() const {
 // A run of nodes with increasing seed mass and finite B, splined in (ln M_+, ln B).
 struct ActionTable::Branch {
   std::vector<double> ln_m, ln_b, ln_prefactor;
-  std::vector<std::size_t> index;  // into nodes_
-  std::shared_ptr<gsl_interp> b, prefactor;
+  std::vector<std::size_t> index;      // into nodes_
+  std::optional<Spline> b, prefactor;  // none for a one-node branch
   bool has_prefactor = false;
 
   bool covers(double u) const { return u >= ln_m.front() && u <= ln_m.back(); }
-  double eval(const std::shared_ptr<gsl_interp>& i, const std::vector<double>& y, double u) const {
-    return ln_m.size() == 1 ? y.front() : gsl_interp_eval(i.get(), ln_m.data(), y.data(), u, nullptr);
+  double eval(const std::optional<Spline>& i, const std::vector<double>& y, double u) const {
+    return i ? i->value(u) : y.front();
   }
 };
 
 namespace {
 
-std::shared_ptr<gsl_interp> make_interp(const std::vector<double>& x, const std::vector<double>& y) {
-  const gsl_interp_type* type = x.size() >= 3 ? gsl_interp_steffen : gsl_interp_linear;
-  std::shared_ptr<gsl_interp> i(gsl_interp_alloc(type, x.size()), gsl_interp_free);
-  gsl_interp_init(i.get(), x.data(), y.data(), x.size());
-  return i;
+// Steffen's monotone cubic, so B(M) has no overshoot between nodes; linear through two nodes.
+std::optional<Spline> make_interp(const std::vector<double>& x, const std::vector<double>& y) {
+  if (x.size() < 2) return std::nullopt;
+  return Spline(x.size() >= 3 ? Spline::Kind::steffen : Spline::Kind::linear, x, y, "B(M) table branch");
 }
 
 // A table's accuracy is measured against direct solves at interval midpoints; the field-equation

@@ -1,36 +1,21 @@
 #include "ember/tunnelling/landscape.hpp"
 
 #include <fmt/format.h>
-#include <gsl/gsl_errno.h>
-#include <gsl/gsl_roots.h>
 
 #include <cmath>
 #include <functional>
 
 #include "ember/core/errors.hpp"
-#include "ember/core/gsl_status.hpp"
+#include "ember/core/gsl_tools.hpp"
 
 namespace ember::tunnelling {
 
 namespace {
 using Fn = std::function<double(double)>;
-double call(double x, void* p) {
-  return (*static_cast<const Fn*>(p))(x);
-}
 
-double brent_root(const Fn& f, double a, double b) {
-  use_gsl_status_codes();
-  std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(gsl_root_fsolver_alloc(gsl_root_fsolver_brent),
-                                                                        gsl_root_fsolver_free);
-  gsl_function g{call, const_cast<Fn*>(&f)};
-  gsl_root_fsolver_set(s.get(), &g, a, b);
-  for (int i = 0; i < 200; ++i) {
-    gsl_root_fsolver_iterate(s.get());
-    if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()), 1e-14, 0) ==
-        GSL_SUCCESS)
-      break;
-  }
-  return gsl_root_fsolver_root(s.get());
+// The escape point and the barrier top to 1e-14 in ln phi: near double precision.
+double root_of(const Fn& f, double a, double b) {
+  return ember::brent_root(f, a, b, 1e-14).x;
 }
 }  // namespace
 
@@ -59,14 +44,14 @@ Landscape analyse_landscape(const higgs::Potential& p, double from, double step)
   // The barrier top: where V' changes sign near best_t.
   const Fn slope = [&](double u) { return p.slope(std::exp(u)); };
   const double a = best_t - step, b = best_t + step;
-  L.barrier_top = (slope(a) > 0 && slope(b) < 0) ? std::exp(brent_root(slope, a, b)) : std::exp(best_t);
+  L.barrier_top = (slope(a) > 0 && slope(b) < 0) ? std::exp(root_of(slope, a, b)) : std::exp(best_t);
   L.barrier_height = p.value(L.barrier_top);
   const Fn value = [&](double u) { return p.value(std::exp(u)); };
-  L.escape = std::exp(brent_root(value, t - step, t));
+  L.escape = std::exp(root_of(value, t - step, t));
   // A true minimum beyond the escape point: V' turning from negative to positive.
   for (double u = t; u + step <= hi; u += step)
     if (slope(u) < 0 && slope(u + step) >= 0) {
-      L.true_minimum = std::exp(brent_root(slope, u, u + step));
+      L.true_minimum = std::exp(root_of(slope, u, u + step));
       break;
     }
   return L;

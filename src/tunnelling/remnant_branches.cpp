@@ -2,8 +2,6 @@
 
 #include <fmt/format.h>
 #include <gsl/gsl_errno.h>
-#include <gsl/gsl_min.h>
-#include <gsl/gsl_roots.h>
 
 #include <algorithm>
 #include <cmath>
@@ -11,7 +9,7 @@
 #include <memory>
 
 #include "ember/core/errors.hpp"
-#include "ember/core/gsl_status.hpp"
+#include "ember/core/gsl_tools.hpp"
 
 namespace ember::tunnelling {
 
@@ -136,68 +134,38 @@ class Search {
   const RemnantSearchOptions& o_;
   RemnantSearch& out_;
 
-  // Nothing is thrown through GSL's C frames: a missing bubble returns NaN (which GSL refuses
-  // with a status code) and an error is kept and rethrown once GSL has returned.
-  struct Call {
-    Search* self;
-    double sign;
-    bool missing = false;
-    std::exception_ptr error;
-  };
-  static double call(double u, void* p) {
-    auto* c = static_cast<Call*>(p);
-    try {
-      const std::optional<double> g = c->self->mismatch(u);
-      if (g) return c->sign * *g;
-      c->missing = true;
-    } catch (...) {
-      c->error = std::current_exception();
-    }
-    return NAN;
-  }
-  // Rethrows a kept error; otherwise whether a point had no bubble. Called before the status.
-  static bool spoilt(const Call& c) {
-    if (c.error) std::rethrow_exception(c.error);
-    return c.missing;
+  // A point with no bubble ends a search: it is thrown past GSL (core/gsl_tools keeps it until GSL
+  // has returned) and the search gives no answer.
+  struct NoBubble {};
+  double signed_mismatch(double u, double sign) {
+    const std::optional<double> g = mismatch(u);
+    if (!g) throw NoBubble{};
+    return sign * *g;
   }
 
   // Brent's method on g over [lo, hi] (a sign change), to hi - lo < root_tolerance in ln M_-.
   std::optional<double> root_in(double lo, double hi) {
-    use_gsl_status_codes();
-    std::unique_ptr<gsl_root_fsolver, decltype(&gsl_root_fsolver_free)> s(
-        gsl_root_fsolver_alloc(gsl_root_fsolver_brent), gsl_root_fsolver_free);
-    Call c{this, 1, false, nullptr};
-    gsl_function f{call, &c};
-    if (const int status = gsl_root_fsolver_set(s.get(), &f, lo, hi); spoilt(c) || status != GSL_SUCCESS)
+    try {
+      const BrentResult r = brent_root([&](double u) { return signed_mismatch(u, 1); }, lo, hi, o_.root_tolerance);
+      if (r.status != GSL_SUCCESS) return std::nullopt;
+      return r.x;
+    } catch (const NoBubble&) {
       return std::nullopt;
-    for (int i = 0; i < 200; ++i) {
-      if (const int status = gsl_root_fsolver_iterate(s.get()); spoilt(c) || status != GSL_SUCCESS) return std::nullopt;
-      if (gsl_root_test_interval(gsl_root_fsolver_x_lower(s.get()), gsl_root_fsolver_x_upper(s.get()),
-                                 o_.root_tolerance, 0) == GSL_SUCCESS)
-        break;
     }
-    return gsl_root_fsolver_root(s.get());
   }
 
-  // The minimum of sign * g over [lo, hi] with g(mid) below both ends (Brent's minimiser).
+  // The minimum of sign * g over [lo, hi] with g(mid) below both ends (Brent's minimiser), to 1e-8
+  // in ln M_-; it stops once g dips below zero: the crossing is all the caller needs.
   std::optional<double> extremum(double lo, double mid, double hi, double sign) {
-    use_gsl_status_codes();
-    std::unique_ptr<gsl_min_fminimizer, decltype(&gsl_min_fminimizer_free)> m(
-        gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent), gsl_min_fminimizer_free);
-    Call c{this, sign, false, nullptr};
-    gsl_function f{call, &c};
-    if (const int status = gsl_min_fminimizer_set(m.get(), &f, mid, lo, hi); spoilt(c) || status != GSL_SUCCESS)
+    constexpr double crossing = 0;
+    try {
+      const BrentResult r =
+          brent_minimum([&](double u) { return signed_mismatch(u, sign); }, mid, lo, hi, 1e-8, 100, &crossing);
+      if (r.status != GSL_SUCCESS) return std::nullopt;
+      return r.x;
+    } catch (const NoBubble&) {
       return std::nullopt;
-    for (int i = 0; i < 100; ++i) {
-      if (const int status = gsl_min_fminimizer_iterate(m.get()); spoilt(c) || status != GSL_SUCCESS)
-        return std::nullopt;
-      // Stop once g dips below zero: the crossing is all the caller needs.
-      if (gsl_min_fminimizer_f_minimum(m.get()) < 0) break;
-      if (gsl_min_test_interval(gsl_min_fminimizer_x_lower(m.get()), gsl_min_fminimizer_x_upper(m.get()), 1e-8, 0) ==
-          GSL_SUCCESS)
-        break;
     }
-    return gsl_min_fminimizer_x_minimum(m.get());
   }
 };
 
