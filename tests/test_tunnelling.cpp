@@ -73,7 +73,7 @@ TEST_CASE("flat O(3) bounce of m^2 phi^2/2 - |lambda| phi^4/4: S3 = 18.90 m/|lam
     o.scan_from = m * 1e-6;
     const FlatBounce b = solve_flat_bounce(p, o);
     CHECK(close(b.action.value * l / m, 18.90, 1e-3));
-    CHECK(b.summary.status == BounceStatus::converged);
+    CHECK(b.summary.status == SolveStatus::converged);
   }
   // O(4) with a mass term has no bounce: the action is lowered without limit by shrinking R
   // toward the Fubini limit (derived), so shooting finds no overshoot.
@@ -101,8 +101,8 @@ TEST_CASE("flat O(3) and O(4) bounces converge as their tolerances are refined")
     tight.shooting_tolerance = 1e-15;
     const higgs::Potential& p = d == 3 ? static_cast<const higgs::Potential&>(o3) : o4;
     const FlatBounce a = solve_flat_bounce(p, loose), b = solve_flat_bounce(p, fine), c = solve_flat_bounce(p, tight);
-    CHECK(a.summary.status == BounceStatus::converged);
-    CHECK(c.summary.status == BounceStatus::converged);
+    CHECK(a.summary.status == SolveStatus::converged);
+    CHECK(c.summary.status == SolveStatus::converged);
     CHECK(std::abs(b.action.value - c.action.value) <=
           std::abs(a.action.value - c.action.value) + 1e-12 * c.action.value);
     CHECK(std::abs(b.action.value - c.action.value) <= b.action.error + c.action.error);
@@ -208,7 +208,7 @@ TEST_CASE("static solutions converge and satisfy the field equation along the wa
   // Tolerance (ours): the solver's stated field-equation residual target.
   REQUIRE(b.max_residual);
   CHECK(*b.max_residual < 1e-5);
-  CHECK(b.summary.status == BounceStatus::converged);
+  CHECK(b.summary.status == SolveStatus::converged);
   // A wall whose interior lies closer to the true minimum than ln phi_h resolves (phi_t - phi_h
   // about 3e-13 phi_t here, measured) is shot from the linearised interior instead, and converges.
   const double aa = 0.03 * m_pl;
@@ -218,7 +218,7 @@ TEST_CASE("static solutions converge and satisfy the field equation along the wa
   REQUIRE(thin.horizon_gap);
   CHECK(*thin.horizon_gap < 1e-11 * 2 * aa);
   CHECK_FALSE(thin.at_resolution_limit);
-  CHECK(thin.summary.status == BounceStatus::converged);
+  CHECK(thin.summary.status == SolveStatus::converged);
   REQUIRE(thin.max_residual);
   CHECK(*thin.max_residual < 1e-5);
   // Refusing walls thinner than thinnest_gap is a resolution limit, named as such. Halving a and
@@ -273,7 +273,7 @@ TEST_CASE("back-reacted static walls approach the Israel-junction thin wall as t
       const double d = std::abs(s.mass_shift.value / (seed - walls.front().remnant_mass) - 1);
       CAPTURE(f);
       CAPTURE(k);
-      CHECK(s.summary.status == BounceStatus::converged);
+      CHECK(s.summary.status == SolveStatus::converged);
       CHECK(d < previous / 3);
       previous = d;
     }

@@ -42,13 +42,13 @@ int lookup(const GreybodyOptions& o) {
   if (o.solve) {
     const Transmission t = solve_transmission(mode, *o.x);
     if (t.summary.status != SolveStatus::converged) throw NumericalError("greybody solver", t.summary.message);
-    j["solved"] = t.value;
-    j["solved_error"] = t.error;
-    j["difference"] = g.value - t.value;
-    j["relative_difference"] = (g.value - t.value) / t.value;
+    j["solved"] = t.gamma.value;
+    j["solved_error"] = t.gamma.error;
+    j["difference"] = g.value - t.gamma.value;
+    j["relative_difference"] = (g.value - t.gamma.value) / t.gamma.value;
     text +=
         fmt::format("  transmission (solved)  {:.10e} +- {:.1e}\n  difference             {:.2e} (relative {:.2e})\n",
-                    t.value, t.error, g.value - t.value, (g.value - t.value) / t.value);
+                    t.gamma.value, t.gamma.error, g.value - t.gamma.value, (g.value - t.gamma.value) / t.gamma.value);
     fmt::print(stderr, "{}\n", t.summary.message);
   }
   if (o.json)

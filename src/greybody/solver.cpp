@@ -155,30 +155,30 @@ Transmission solve_transmission(const Mode& mode, double x, const SolverOptions&
   const Pass check =
       integrate_pass(mode, x, u, r_match, start, options.ode_relative * options.check_factor, &evaluations);
 
-  t.value = fine.gamma_far;
+  t.gamma.value = fine.gamma_far;
   t.reflection = fine.reflection_far;
   t.flux_defect = std::abs(fine.gamma_far + fine.reflection_far - 1.0);
   // Honest error: tolerance dependence + matching-radius dependence + series truncation + the
   // neglected second-order horizon term, each a relative error on Gamma except the first two.
   const double relative_terms = 2.0 * fine.series_error + 2.0 * start.correction * start.correction;
-  t.error = std::abs(fine.gamma_far - check.gamma_far) + std::abs(fine.gamma_far - fine.gamma_near) +
-            relative_terms * t.value;
+  t.gamma.error = std::abs(fine.gamma_far - check.gamma_far) + std::abs(fine.gamma_far - fine.gamma_near) +
+                  relative_terms * t.gamma.value;
 
   auto& s = t.summary;
   s.rhs_evaluations = evaluations;
   s.steps = fine.steps + check.steps;
   s.match_radius = r_match;
   s.start_y = start.y;
-  if (!std::isfinite(t.value) || !std::isfinite(t.error) || !std::isfinite(t.reflection))
+  if (!std::isfinite(t.gamma.value) || !std::isfinite(t.gamma.error) || !std::isfinite(t.reflection))
     throw NumericalError("greybody solver", fmt::format("{} at x = {:.6g}: non-finite result (Gamma = {}, error = {})",
-                                                        describe(mode), x, t.value, t.error));
-  const double relative_error = t.value > 0 ? t.error / t.value : INFINITY;
+                                                        describe(mode), x, t.gamma.value, t.gamma.error));
+  const double relative_error = t.gamma.value > 0 ? t.gamma.error / t.gamma.value : INFINITY;
   s.status = relative_error < 1e-6 ? SolveStatus::converged : SolveStatus::not_converged;
   s.message = fmt::format(
       "{} at x = {:.6g}: Gamma = {:.10e} +- {:.2e} (relative {:.1e}); |R|^2 = {:.6e}, flux defect {:.1e}; "
       "start y = {:.0f}, matched at r = {:.4g} M; {} steps, {} evaluations",
-      describe(mode), x, t.value, t.error, relative_error, t.reflection, t.flux_defect, start.y, r_match, s.steps,
-      s.rhs_evaluations);
+      describe(mode), x, t.gamma.value, t.gamma.error, relative_error, t.reflection, t.flux_defect, start.y, r_match,
+      s.steps, s.rhs_evaluations);
   return t;
 }
 

@@ -52,7 +52,7 @@ ModeBuild build_mode(const Mode& mode, const BuildOptions& o, BuildSummary& s, P
   for (int i = 0; i < o.points_per_mode; ++i) {
     const double x = o.x_min * std::exp(step * i);
     const Transmission t = solve_checked(mode, x, o, s);
-    b.rows.push_back({mode.twice_spin, mode.twice_l, x, t.value, t.reflection, t.error});
+    b.rows.push_back({mode.twice_spin, mode.twice_l, x, t.gamma.value, t.reflection, t.gamma.error});
     progress.advance(s.solves, describe(mode));
     if (t.reflection < o.unit_transmission) break;
   }
@@ -62,7 +62,7 @@ ModeBuild build_mode(const Mode& mode, const BuildOptions& o, BuildSummary& s, P
     const double x = std::sqrt(b.rows[i].x * b.rows[i + 1].x);
     const Transmission t = solve_checked(mode, x, o, s);
     const double interpolated = single.transmission(mode.twice_spin, mode.twice_l, x).value;
-    b.worst_midpoint = std::max(b.worst_midpoint, std::abs(interpolated - t.value) / t.value);
+    b.worst_midpoint = std::max(b.worst_midpoint, std::abs(interpolated - t.gamma.value) / t.gamma.value);
     progress.advance(s.solves, describe(mode));
   }
   return b;

@@ -64,7 +64,7 @@ ActionPoint solve_node(Prescription p, const TunnellingSetup& s, double mass) {
     a.action = {k * sol.mass_shift.value, k * sol.mass_shift.error};
     a.phi_horizon = sol.phi_horizon;
     a.flags.resolution_limit = sol.at_resolution_limit;
-    a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
+    a.flags.unconverged = sol.summary.status != SolveStatus::converged && !sol.at_resolution_limit;
     a.note = sol.summary.message;
   } catch (const NumericalError& e) {
     if (!no_static_solution(e)) throw;

@@ -186,7 +186,7 @@ FlatBounce solve_once(const higgs::Potential& pot, const FlatBounceOptions& o) {
   out.summary.bisections = n;
   out.summary.rhs_evaluations = sh.evaluations;
   const double rel_err = out.action.error / out.action.value;
-  out.summary.status = rel_err < 1e-4 ? BounceStatus::converged : BounceStatus::not_converged;
+  out.summary.status = rel_err < 1e-4 ? SolveStatus::converged : SolveStatus::not_converged;
   out.summary.message = fmt::format(
       "O({}) bounce: S = {:.10g} +- {:.2g} (relative {:.1e}); phi(0) = {:.6g}, wall at r = {:.4g}; {} bisections, {} "
       "evaluations",
@@ -220,7 +220,7 @@ FlatBounce solve_flat_bounce(const higgs::Potential& pot, const FlatBounceOption
   out.action.error += std::max(0.0, integration - o.relative_tolerance * out.action.value);
   out.summary.rhs_evaluations += check.summary.rhs_evaluations;
   const double rel_err = out.action.error / out.action.value;
-  out.summary.status = rel_err < 1e-4 ? BounceStatus::converged : BounceStatus::not_converged;
+  out.summary.status = rel_err < 1e-4 ? SolveStatus::converged : SolveStatus::not_converged;
   out.summary.message += fmt::format("; error includes a re-solve at tolerance {:.0e} (S = {:.10g})",
                                      loose.relative_tolerance, check.action.value);
   return out;

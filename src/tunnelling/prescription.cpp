@@ -178,7 +178,7 @@ ActionPoint entropy_drop(const TunnellingSetup& s, double seed, const ActionEffo
   a.flags.several_branches = search.roots.size() > 1;
   a.flags.near_branch_point = best->near_branch_point;
   // Roots come only from closed brackets, so the resolution limit is never set here.
-  a.flags.unconverged = sol.summary.status != BounceStatus::converged;
+  a.flags.unconverged = sol.summary.status != SolveStatus::converged;
   a.note = sol.summary.message;
   if (search.roots.size() > 1) a.note += fmt::format("; lowest B of {} remnant branches", search.roots.size());
   return a;
@@ -193,7 +193,7 @@ ActionPoint probe_field(const TunnellingSetup& s, double seed, const ActionEffor
     a.action = sol.action;
     a.phi_horizon = sol.phi_horizon;
     a.flags.resolution_limit = sol.at_resolution_limit;
-    a.flags.unconverged = sol.summary.status != BounceStatus::converged && !sol.at_resolution_limit;
+    a.flags.unconverged = sol.summary.status != SolveStatus::converged && !sol.at_resolution_limit;
     a.note = sol.summary.message;
   } catch (const NumericalError& e) {
     if (!no_static_solution(e)) throw;
@@ -235,7 +235,7 @@ ActionPoint hot_bubble(const TunnellingSetup& s, double seed) {
   a.own_prefactor =
       s.hot_bubble_volume * horizon_volume(s, seed) * std::pow(t, 4) * std::pow(a.action.value / (2 * pi), 1.5);
   a.flags.outside_running = t > run.mu_max() || t < run.mu_min();
-  a.flags.unconverged = b.summary.status != BounceStatus::converged;
+  a.flags.unconverged = b.summary.status != SolveStatus::converged;
   a.note = fmt::format("T_H = {:.4g} GeV; {}", t, b.summary.message);
   return a;
 }
@@ -272,7 +272,7 @@ ActionPoint no_seed(const TunnellingSetup& s, double seed) {
   }
   a.action = b.action;
   a.own_prefactor = horizon_volume(s, seed) / std::pow(b.wall_radius, 4);
-  a.flags.unconverged = b.summary.status != BounceStatus::converged;
+  a.flags.unconverged = b.summary.status != SolveStatus::converged;
   a.note = b.summary.message;
   return a;
 }

@@ -266,7 +266,7 @@ StaticSolution solve_static(const higgs::Potential& pot, double mass, const Stat
   out.summary.rhs_evaluations = evaluations;
   const double rel_err = std::abs(out.action.error / out.action.value);
   out.summary.status =
-      (rel_err < 1e-4 && !out.at_resolution_limit) ? BounceStatus::converged : BounceStatus::not_converged;
+      (rel_err < 1e-4 && !out.at_resolution_limit) ? SolveStatus::converged : SolveStatus::not_converged;
   out.summary.message = fmt::format(
       "{} static bubble around M = {:.6g} M_Pl: B = {:.8g} +- {:.2g}, Delta M / M = {:.4g}, phi_h = {:.6g} GeV, "
       "bubble at r = {:.4g} r_h{}; {} bisections, {} evaluations, {}",

@@ -58,7 +58,7 @@ int main() {
   for (const double x : {0.001, 0.1, 1.0, 5.0})
     report(
         fmt::format("greybody: one direct solve, spin 1, l = 1, x = {}", x), 50,
-        [&] { sink = sink + solve_transmission(make_mode(1, 1), x).value; }, "solves/s");
+        [&] { sink = sink + solve_transmission(make_mode(1, 1), x).gamma.value; }, "solves/s");
   BuildOptions quiet;
   quiet.quiet = true;
   report("greybody: full table rebuild (in process, one core)", 3,

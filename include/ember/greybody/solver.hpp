@@ -11,6 +11,8 @@
 
 #include <string>
 
+#include "ember/core/estimate.hpp"
+#include "ember/core/solve_status.hpp"
 #include "ember/greybody/mode.hpp"
 #include "ember/greybody/tolerances.hpp"
 
@@ -30,8 +32,6 @@ struct SolverOptions {
   void validate() const;
 };
 
-enum class SolveStatus { converged, not_converged };
-
 struct SolveSummary {
   SolveStatus status = SolveStatus::converged;
   std::string message;       // what was done, with the numbers
@@ -42,8 +42,7 @@ struct SolveSummary {
 };
 
 struct Transmission {
-  double value = 0;        // Gamma
-  double error = 0;        // estimated absolute error of value
+  Estimate gamma;          // Gamma, with an estimated absolute error
   double reflection = 0;   // |R|^2, computed from the outgoing amplitude
   double flux_defect = 0;  // |Gamma + |R|^2 - 1|, a check of the integration
   SolveSummary summary;

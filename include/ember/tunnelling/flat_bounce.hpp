@@ -21,6 +21,7 @@
 #include <string>
 
 #include "ember/core/estimate.hpp"
+#include "ember/core/solve_status.hpp"
 #include "ember/higgs/potential.hpp"
 #include "ember/tunnelling/landscape.hpp"
 
@@ -38,10 +39,8 @@ struct FlatBounceOptions {
   void validate() const;  // throws InputError naming the field and the rule
 };
 
-enum class BounceStatus { converged, not_converged };
-
 struct BounceSummary {
-  BounceStatus status = BounceStatus::converged;
+  SolveStatus status = SolveStatus::converged;
   int bisections = 0;
   long rhs_evaluations = 0;
   std::string message;
