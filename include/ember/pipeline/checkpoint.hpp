@@ -1,5 +1,5 @@
-// Checkpoints of the main job: every finished unit (Higgs point x prescription) is written to a
-// folder as it completes, atomically, so a killed run loses at most the units in flight. The
+// Checkpoints of the main job: every finished work item (a B(M) table, or a chunk of the scan) is written to a
+// folder as it completes, atomically, so a killed run loses at most the items in flight. The
 // folder also holds the identity of the job (the resolved scenario's hash, the job options and
 // the numerics fingerprint); a folder written for another job is refused unless restarting.
 #pragma once

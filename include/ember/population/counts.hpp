@@ -2,7 +2,8 @@
 //
 // Units: internal natural units; counts are plain numbers.
 //
-// For each formation mass a Response holds the decays per unit beta (lightcone.hpp's counts).
+// For each formation mass a Response holds the decays per unit beta, from the holes formed in our
+// past light cone (lightcone_count_per_beta, formation.hpp).
 // A monochromatic population of abundance beta gives N = beta K(M). An extended one spreads
 // f_PBH over mass with psi (int psi dM = 1): beta(M) dM = f psi(M) / (f/beta)(M) dM, so
 //   N = f int psi(M) K(M) / (f/beta)(M) dM,

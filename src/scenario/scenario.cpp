@@ -1,7 +1,8 @@
+#include "ember/scenario/scenario.hpp"
+
 #include <stdexcept>
 
 #include "ember/core/text.hpp"
-#include "ember/scenario/scenario.hpp"
 #include "ember/units/quantity.hpp"
 
 namespace ember::scenario {
