@@ -101,31 +101,36 @@ nlohmann::ordered_json shares_json(const MassLoss& ml, const std::vector<double>
   return j;
 }
 
-int by_mass(const EvaporateOptions& o) {
-  const double mass = quantity_option("--mass", o.mass, u::mass);
-  const Setup s = setup(o);
-  const MassLoss& ml = s.mass_loss;
-  const Trajectory tr(ml, mass, s.trajectory);
-  const double alpha_cgs = ml.alpha(mass) / (u::gram * u::gram * u::gram) * u::second;
-  std::optional<double> age;
+// What `evaporate --mass` prints, built section by section: the JSON and the text together.
+struct Printout {
+  nlohmann::ordered_json j;
+  std::string text;
+};
+
+// The hole's age from --age, or from --formed-at and --today; none when neither is given.
+std::optional<double> age_of(const EvaporateOptions& o) {
   if (!o.age.empty() && !o.formed_at.empty())
     throw InputError("evaporate: --age and --formed-at exclude each other; expected one");
-  if (!o.age.empty()) age = quantity_option("--age", o.age, u::time);
-  if (!o.formed_at.empty()) {
-    const double today = quantity_option("--today", o.today, u::time),
-                 formed = quantity_option("--formed-at", o.formed_at, u::time);
-    if (formed >= today)
-      throw InputError(
-          fmt::format("--formed-at {}: not before --today {}; expected an earlier cosmic time", o.formed_at, o.today));
-    age = today - formed;
-  }
-  nlohmann::ordered_json j{{"mass_g", mass / u::gram},
-                           {"temperature_GeV", hawking_temperature(mass)},
-                           {"f", ml.f(mass)},
-                           {"alpha_g3_per_s", alpha_cgs},
-                           {"alpha_relative_error", ml.relative_error()},
-                           {"lifetime_s", tr.lifetime() / u::second}};
-  std::string text = fmt::format(
+  if (!o.age.empty()) return quantity_option("--age", o.age, u::time);
+  if (o.formed_at.empty()) return std::nullopt;
+  const double today = quantity_option("--today", o.today, u::time),
+               formed = quantity_option("--formed-at", o.formed_at, u::time);
+  if (formed >= today)
+    throw InputError(
+        fmt::format("--formed-at {}: not before --today {}; expected an earlier cosmic time", o.formed_at, o.today));
+  return today - formed;
+}
+
+Printout hole_facts(const MassLoss& ml, const Trajectory& tr, double mass) {
+  const double alpha_cgs = ml.alpha(mass) / (u::gram * u::gram * u::gram) * u::second;
+  Printout p;
+  p.j = {{"mass_g", mass / u::gram},
+         {"temperature_GeV", hawking_temperature(mass)},
+         {"f", ml.f(mass)},
+         {"alpha_g3_per_s", alpha_cgs},
+         {"alpha_relative_error", ml.relative_error()},
+         {"lifetime_s", tr.lifetime() / u::second}};
+  p.text = fmt::format(
       "M = {} g ({:.4e} GeV, {:.4e} M_Pl)\n"
       "  Hawking temperature  {:.6g} GeV ({:.4e} K)\n"
       "  f(M)                 {:.6f}   (alpha / 5.34e25 g^3 s^-1, MacGibbon 1991)\n"
@@ -134,66 +139,93 @@ int by_mass(const EvaporateOptions& o) {
       format_real(mass / u::gram), mass, mass / u::planck_mass, hawking_temperature(mass),
       hawking_temperature(mass) / u::kelvin, ml.f(mass), alpha_cgs, ml.relative_error(), tr.lifetime() / u::second,
       tr.lifetime() / (1e9 * u::year));
-  // Semiclassical evaporation needs a hole well above the Planck mass (common practice: 1e3 M_Pl,
-  // the default cutoff); below the cutoff the whole life is the analytic tail.
+  return p;
+}
+
+// Semiclassical evaporation needs a hole well above the Planck mass (common practice: 1e3 M_Pl,
+// the default cutoff); below the cutoff the whole life is the analytic tail.
+void add_warnings(Printout& p, double mass, double cutoff) {
   nlohmann::ordered_json warnings = nlohmann::ordered_json::array();
   if (mass < u::planck_mass)
     warnings.push_back("below the Planck mass: the semiclassical Hawking rate does not apply");
   else if (const double floor = tunnelling::TunnellingSetup{}.semiclassical_floor; mass < floor)
     warnings.push_back(fmt::format("below {} M_Pl: outside the semiclassical regime (common practice)",
                                    format_real(floor / u::planck_mass)));
-  if (mass <= s.trajectory.cutoff_mass)
+  if (mass <= cutoff)
     warnings.push_back("at or below --cutoff: the whole life is the analytic tail with alpha at this mass");
-  j["warnings"] = warnings;
-  for (const auto& w : warnings) text += fmt::format("  warning: {}\n", w.get<std::string>());
-  if (age) {
-    const double left = tr.mass_at_age(*age);
-    j["age_s"] = *age / u::second;
-    j["mass_today_g"] = left / u::gram;
-    j["evaporated"] = left == 0;
-    text += left > 0 ? fmt::format("  mass after {:.6g} Gyr {:.6e} g\n", *age / (1e9 * u::year), left / u::gram)
-                     : fmt::format("  after {:.6g} Gyr      evaporated (lifetime {:.6g} Gyr)\n", *age / (1e9 * u::year),
+  p.j["warnings"] = warnings;
+  for (const auto& w : warnings) p.text += fmt::format("  warning: {}\n", w.get<std::string>());
+}
+
+void add_age(Printout& p, const Trajectory& tr, double age) {
+  const double left = tr.mass_at_age(age);
+  p.j["age_s"] = age / u::second;
+  p.j["mass_today_g"] = left / u::gram;
+  p.j["evaporated"] = left == 0;
+  p.text += left > 0 ? fmt::format("  mass after {:.6g} Gyr {:.6e} g\n", age / (1e9 * u::year), left / u::gram)
+                     : fmt::format("  after {:.6g} Gyr      evaporated (lifetime {:.6g} Gyr)\n", age / (1e9 * u::year),
                                    tr.lifetime() / (1e9 * u::year));
-  }
+}
+
+// Every decade in JSON; the text stops three decades below the start and sums the rest.
+void add_decades(Printout& p, const Trajectory& tr) {
   nlohmann::ordered_json decades = nlohmann::ordered_json::array();
-  text += "  time spent per decade of mass:\n";
+  p.text += "  time spent per decade of mass:\n";
   for (const auto& d : tr.decade_times()) {
     if (d.time <= 0) continue;
     decades.push_back(
         {{"from_g", d.mass_low / u::gram}, {"to_g", d.mass_high / u::gram}, {"time_s", d.time / u::second}});
     if (d.mass_high > 1e-3 * tr.initial_mass())
-      text += fmt::format("    {:>9.3g} - {:<9.3g} g  {:.4e} s\n", d.mass_low / u::gram, d.mass_high / u::gram,
-                          d.time / u::second);
+      p.text += fmt::format("    {:>9.3g} - {:<9.3g} g  {:.4e} s\n", d.mass_low / u::gram, d.mass_high / u::gram,
+                            d.time / u::second);
   }
-  text += fmt::format("    (and {:.4e} s below {:.3g} g)\n", tr.time_left(1e-3 * tr.initial_mass()) / u::second,
-                      1e-3 * tr.initial_mass() / u::gram);
-  j["decades"] = decades;
+  p.text += fmt::format("    (and {:.4e} s below {:.3g} g)\n", tr.time_left(1e-3 * tr.initial_mass()) / u::second,
+                        1e-3 * tr.initial_mass() / u::gram);
+  p.j["decades"] = decades;
+}
 
+void add_budget(Printout& p, const MassLoss& ml, const Trajectory& tr, double mass) {
   const auto now = power_shares(ml, mass), life = lifetime_shares(ml, mass, tr.cutoff_mass());
-  j["budget_now"] = shares_json(ml, now);
-  j["budget_lifetime"] = shares_json(ml, life);
-  text += "  energy budget by species        now   rest of life\n";
+  p.j["budget_now"] = shares_json(ml, now);
+  p.j["budget_lifetime"] = shares_json(ml, life);
+  p.text += "  energy budget by species        now   rest of life\n";
   for (std::size_t i = 0; i < now.size(); ++i)
     if (now[i] > 1e-4 || life[i] > 1e-4)
-      text +=
+      p.text +=
           fmt::format("    {:<22} {:>8.3f}% {:>8.3f}%\n", ml.particles().species[i].name, 100 * now[i], 100 * life[i]);
-  j["cutoff_g"] = tr.cutoff_mass() / u::gram;
-  j["analytic_tail"] = tr.analytic_tail();
-  j["tail_s"] = tr.tail_duration() / u::second;
-  j["model"] = model_line(ml);
-  text += fmt::format("  integrated to {:.4g} g; analytic tail below ({:.3e} s)\n  model: {}\n",
-                      tr.cutoff_mass() / u::gram, tr.tail_duration() / u::second, model_line(ml));
+}
+
+void add_model(Printout& p, const MassLoss& ml, const Trajectory& tr) {
+  p.j["cutoff_g"] = tr.cutoff_mass() / u::gram;
+  p.j["analytic_tail"] = tr.analytic_tail();
+  p.j["tail_s"] = tr.tail_duration() / u::second;
+  p.j["model"] = model_line(ml);
+  p.text += fmt::format("  integrated to {:.4g} g; analytic tail below ({:.3e} s)\n  model: {}\n",
+                        tr.cutoff_mass() / u::gram, tr.tail_duration() / u::second, model_line(ml));
+}
+
+int by_mass(const EvaporateOptions& o) {
+  const double mass = quantity_option("--mass", o.mass, u::mass);
+  const Setup s = setup(o);
+  const Trajectory tr(s.mass_loss, mass, s.trajectory);
+  const std::optional<double> age = age_of(o);
+  Printout p = hole_facts(s.mass_loss, tr, mass);
+  add_warnings(p, mass, s.trajectory.cutoff_mass);
+  if (age) add_age(p, tr, *age);
+  add_decades(p, tr);
+  add_budget(p, s.mass_loss, tr, mass);
+  add_model(p, s.mass_loss, tr);
   if (!o.trajectory.empty()) {
     const std::string csv = csv_trajectory(tr, o);
     require_finite_text(csv, o.trajectory);
     write_file_atomically(o.trajectory, csv);
-    j["trajectory_file"] = o.trajectory;
-    text += fmt::format("  trajectory written to {}\n", o.trajectory);
+    p.j["trajectory_file"] = o.trajectory;
+    p.text += fmt::format("  trajectory written to {}\n", o.trajectory);
   }
   if (o.json)
-    print_json(j);
+    print_json(p.j);
   else
-    std::cout << text;
+    std::cout << p.text;
   return exit_ok;
 }
 

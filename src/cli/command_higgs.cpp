@@ -59,15 +59,26 @@ std::string couplings_csv(const StandardModelPotential& pot) {
   return out;
 }
 
-int higgs(const HiggsOptions& o) {
+// Everything `ember higgs` reports, computed once for the JSON and the text.
+struct HiggsFacts {
+  std::shared_ptr<const Running> running;
+  StandardModelPotential pot;
+  StabilityReport r;
+  std::optional<double> critical;
+  std::vector<std::string> warnings;
+  Couplings c;
+  double at = 0;
+};
+
+HiggsFacts compute(const HiggsOptions& o) {
   o.inputs.validate();
   const double at = quantity_option("--at", o.at, units::energy);
-  const auto running = std::make_shared<const Running>(o.inputs);
+  auto running = std::make_shared<const Running>(o.inputs);
   if (at < running->mu_min() || at > running->mu_max())
     throw InputError(fmt::format("--at {}: outside the running's range; expected between M_t and {:.3g} GeV", o.at,
                                  running->mu_max()));
-  const StandardModelPotential pot(running, {o.coleman_weinberg, o.lambda6, o.lambda8});
-  const StabilityReport r = analyse_stability(pot);
+  StandardModelPotential pot(running, {o.coleman_weinberg, o.lambda6, o.lambda8});
+  StabilityReport r = analyse_stability(pot);
   std::optional<double> critical;
   std::vector<std::string> warnings = fit_warnings(o.inputs);
   try {
@@ -75,44 +86,43 @@ int higgs(const HiggsOptions& o) {
   } catch (const NumericalError& e) {
     warnings.push_back(std::string("no critical top mass: ") + e.what());
   }
-  for (const auto& w : warnings) fmt::print(stderr, "ember: warning: {}\n", w);
-  const Couplings c = couplings_at_top(o.inputs);
+  return {running, std::move(pot), std::move(r), critical, std::move(warnings), couplings_at_top(o.inputs), at};
+}
 
-  if (!o.table.empty()) {
-    const std::string csv = couplings_csv(pot);
-    require_finite_text(csv, o.table);
-    write_file_atomically(o.table, csv);
-  }
-  if (o.json) {
-    print_json({{"inputs",
-                 {{"top_mass_GeV", o.inputs.top_mass},
-                  {"higgs_mass_GeV", o.inputs.higgs_mass},
-                  {"alpha_s", o.inputs.alpha_s},
-                  {"w_mass_GeV", o.inputs.w_mass},
-                  {"loops", o.inputs.loops},
-                  {"lambda6", o.lambda6},
-                  {"lambda8", o.lambda8},
-                  {"coleman_weinberg", o.coleman_weinberg}}},
-                {"couplings_at_top", {{"g1", c.g1}, {"g2", c.g2}, {"g3", c.g3}, {"yt", c.yt}, {"lambda", c.lambda}}},
-                {"at_GeV", at},
-                {"lambda_at", running->lambda(at)},
-                {"lambda_eff_at", pot.lambda_eff(at)},
-                {"instability_scale_GeV", optional_json(r.instability_scale)},
-                {"lambda_min", r.lambda_min},
-                {"lambda_min_scale_GeV", r.lambda_min_scale},
-                {"lambda_eff_min", r.lambda_eff_min},
-                {"lambda_eff_min_scale_GeV", r.lambda_eff_min_scale},
-                {"verdict", name_of(r.verdict)},
-                {"log10_expected_decays", optional_json(r.log10_expected_decays)},
-                {"log10_decay_probability", optional_json(decay_probability(r.log10_expected_decays))},
-                {"bounce_scale_GeV", r.log10_expected_decays ? nlohmann::ordered_json(r.bounce_scale) : nullptr},
-                {"bounce_at_scan_edge", r.bounce_at_scan_edge},
-                {"critical_top_mass_GeV", optional_json(critical)},
-                {"prescription", r.prescription},
-                {"lambda_eff_interpolation_error", pot.interpolation_error()},
-                {"warnings", warnings}});
-    return exit_ok;
-  }
+nlohmann::ordered_json facts_json(const HiggsOptions& o, const HiggsFacts& f) {
+  const StabilityReport& r = f.r;
+  return {
+      {"inputs",
+       {{"top_mass_GeV", o.inputs.top_mass},
+        {"higgs_mass_GeV", o.inputs.higgs_mass},
+        {"alpha_s", o.inputs.alpha_s},
+        {"w_mass_GeV", o.inputs.w_mass},
+        {"loops", o.inputs.loops},
+        {"lambda6", o.lambda6},
+        {"lambda8", o.lambda8},
+        {"coleman_weinberg", o.coleman_weinberg}}},
+      {"couplings_at_top", {{"g1", f.c.g1}, {"g2", f.c.g2}, {"g3", f.c.g3}, {"yt", f.c.yt}, {"lambda", f.c.lambda}}},
+      {"at_GeV", f.at},
+      {"lambda_at", f.running->lambda(f.at)},
+      {"lambda_eff_at", f.pot.lambda_eff(f.at)},
+      {"instability_scale_GeV", optional_json(r.instability_scale)},
+      {"lambda_min", r.lambda_min},
+      {"lambda_min_scale_GeV", r.lambda_min_scale},
+      {"lambda_eff_min", r.lambda_eff_min},
+      {"lambda_eff_min_scale_GeV", r.lambda_eff_min_scale},
+      {"verdict", name_of(r.verdict)},
+      {"log10_expected_decays", optional_json(r.log10_expected_decays)},
+      {"log10_decay_probability", optional_json(decay_probability(r.log10_expected_decays))},
+      {"bounce_scale_GeV", r.log10_expected_decays ? nlohmann::ordered_json(r.bounce_scale) : nullptr},
+      {"bounce_at_scan_edge", r.bounce_at_scan_edge},
+      {"critical_top_mass_GeV", optional_json(f.critical)},
+      {"prescription", r.prescription},
+      {"lambda_eff_interpolation_error", f.pot.interpolation_error()},
+      {"warnings", f.warnings}};
+}
+
+std::string facts_text(const HiggsFacts& f) {
+  const StabilityReport& r = f.r;
   std::string text = fmt::format(
       "{}\n"
       "MS-bar couplings at mu = M_t (fits of Buttazzo et al. 2013):\n"
@@ -120,7 +130,8 @@ int higgs(const HiggsOptions& o) {
       "at mu = h = {:.4g} GeV:\n"
       "  lambda (MS-bar, running)      {:+.5f}\n"
       "  lambda_eff (in the potential) {:+.5f}\n",
-      pot.description(), c.g1, c.g2, c.g3, c.yt, c.lambda, at, running->lambda(at), pot.lambda_eff(at));
+      f.pot.description(), f.c.g1, f.c.g2, f.c.g3, f.c.yt, f.c.lambda, f.at, f.running->lambda(f.at),
+      f.pot.lambda_eff(f.at));
   text += r.instability_scale ? fmt::format("instability scale (lambda_eff = 0)   {:.4g} GeV\n", *r.instability_scale)
                               : "instability scale                    none: lambda_eff stays positive\n";
   text += fmt::format("lambda_min (MS-bar, M_t to M_Pl)     {:+.5f} at {:.3g} GeV\n", r.lambda_min, r.lambda_min_scale);
@@ -134,9 +145,25 @@ int higgs(const HiggsOptions& o) {
                     *r.log10_expected_decays, r.bounce_scale,
                     r.bounce_at_scan_edge ? ", at the end of the scanned range: a lower bound" : "")
               : "log10 N (unseeded decays expected in the past light cone)  none: no flat-space bounce\n";
-  text += critical ? fmt::format("critical top mass (lambda_min = 0)   {:.3f} GeV\n", *critical)
-                   : "critical top mass                    not found in [160, 185] GeV\n";
+  text += f.critical ? fmt::format("critical top mass (lambda_min = 0)   {:.3f} GeV\n", *f.critical)
+                     : "critical top mass                    not found in [160, 185] GeV\n";
   text += fmt::format("decay prescription: {}\n", r.prescription);
+  return text;
+}
+
+int higgs(const HiggsOptions& o) {
+  const HiggsFacts f = compute(o);
+  for (const auto& w : f.warnings) fmt::print(stderr, "ember: warning: {}\n", w);
+  if (!o.table.empty()) {
+    const std::string csv = couplings_csv(f.pot);
+    require_finite_text(csv, o.table);
+    write_file_atomically(o.table, csv);
+  }
+  if (o.json) {
+    print_json(facts_json(o, f));
+    return exit_ok;
+  }
+  std::string text = facts_text(f);
   if (!o.table.empty()) text += fmt::format("running couplings written to {}\n", o.table);
   std::cout << text;
   return exit_ok;

@@ -183,6 +183,81 @@ Verified narrow_coarsely(Shooter& coarse, Shooter& full, const Bracket& original
   return v;
 }
 
+// The bisection on the launch parameter, bracketed and closed to the shooting tolerance (first
+// with a coarse shooter where that tolerance is tight), with the coarse shooter's counts.
+struct Shooting {
+  Bisection bis;
+  long coarse_evaluations = 0;
+  int coarse_steps = 0;
+};
+
+Shooting shoot_bubble(const higgs::Potential& pot, const Landscape& L,
+                      const std::optional<detail::TrueMinimum>& minimum, Shooter& sh, double mass, double r_h,
+                      const StaticOptions& o) {
+  // Bracket: the escape point should undershoot; go up until a shot overshoots. For very heavy
+  // holes (about 1e13 M_Pl in the Standard Model) even the escape point overshoots and there is
+  // nothing to bracket: say so rather than bisect onto a wrong end.
+  const double s_escape = std::log(L.escape);
+  if (sh.shoot(field_aim(s_escape)).kind == Shot::overshoot)
+    throw NumericalError("static instanton shooting",
+                         fmt::format("phi_h at the escape point {:.4g} GeV already overshoots around {}: the static "
+                                     "bubble is not bracketed",
+                                     L.escape, seed_text(mass)));
+  double last_under = s_escape;
+  const double s_top = std::log(L.true_minimum ? *L.true_minimum : pot.field_max());
+  std::optional<Bracket> bracket = bracket_in_field(sh, s_escape, s_top, minimum.has_value(), mass, last_under);
+  if (!bracket) bracket = bracket_in_gap(sh, *minimum, L.escape, last_under, o, mass);
+  Shooting out;
+  if (o.shooting_tolerance < coarse_width) {
+    Shooter coarse(pot, r_h, o.back_reaction ? o.newton_G : 0.0,
+                   std::min(coarse_step_max, coarse_step_factor * o.relative_tolerance), L.barrier_top, minimum);
+    const Verified v = narrow_coarsely(coarse, sh, *bracket);
+    out.bis = bisect(sh, v.bracket, o.shooting_tolerance, v.under, v.over);
+    out.coarse_evaluations = coarse.evaluations();
+    out.coarse_steps = v.coarse_steps;
+  } else {
+    out.bis = bisect(sh, *bracket, o.shooting_tolerance);
+  }
+  return out;
+}
+
+// B from the mass shift: back-reacted, B = 4 pi G (M_+ + M_-) Delta M (the difference of the
+// horizon areas over 4G); probe, Delta M / T_H with T_H = 1 / (8 pi G M).
+void set_action(StaticSolution& out, double mass, const StaticOptions& o) {
+  if (o.back_reaction) {
+    out.remnant_mass = mass;
+    out.seed_mass = mass + out.mass_shift.value;
+    const double k = 4 * units::pi * o.newton_G * (out.seed_mass + mass);
+    out.action = {k * out.mass_shift.value, k * out.mass_shift.error};
+  } else {
+    out.remnant_mass = out.seed_mass = mass;
+    const double k = 8 * units::pi * o.newton_G * mass;  // 1 / T_H
+    out.action = {k * out.mass_shift.value, k * out.mass_shift.error};
+  }
+  if (!(out.action.value > 0) || !std::isfinite(out.action.value) || !std::isfinite(out.action.error))
+    throw NumericalError("static instanton shooting",
+                         fmt::format("B = {:.6g} +- {:.2g} around M = {:.4g} M_Pl (phi_h = {:.4g} GeV): expected a "
+                                     "finite B > 0",
+                                     out.action.value, out.action.error, mass / units::planck_mass, out.phi_horizon));
+}
+
+void summarise(StaticSolution& out, const Landscape& L, double mass, double r_h, int bisections, long evaluations,
+               bool back_reaction) {
+  out.summary.bisections = bisections;
+  out.summary.rhs_evaluations = evaluations;
+  const double rel_err = std::abs(out.action.error / out.action.value);
+  out.summary.status =
+      (rel_err < 1e-4 && !out.at_resolution_limit) ? SolveStatus::converged : SolveStatus::not_converged;
+  out.summary.message = fmt::format(
+      "{} static bubble around M = {:.6g} M_Pl: B = {:.8g} +- {:.2g}, Delta M / M = {:.4g}, phi_h = {:.6g} GeV, "
+      "bubble at r = {:.4g} r_h{}; {} bisections, {} evaluations, {}",
+      back_reaction ? "back-reacted" : "probe", mass / units::planck_mass, out.action.value, out.action.error,
+      out.mass_shift.value / mass, out.phi_horizon, out.bubble_radius / r_h,
+      out.horizon_gap ? fmt::format(" (phi_t - phi_h = {:.3g} phi_t)", *out.horizon_gap / *L.true_minimum) : "",
+      bisections, evaluations,
+      out.max_residual ? fmt::format("residual {:.1e}", *out.max_residual) : "residual not checked");
+}
+
 }  // namespace
 
 StaticSolution solve_static(const higgs::Potential& pot, double mass, const StaticOptions& o) {
@@ -197,33 +272,8 @@ StaticSolution solve_static(const higgs::Potential& pot, double mass, const Stat
     minimum = detail::TrueMinimum{t, pot.value(t), pot.curvature(t), o.linear_gap * (t - L.barrier_top)};
   }
   Shooter sh(pot, r_h, o.back_reaction ? o.newton_G : 0.0, o.relative_tolerance, L.barrier_top, minimum);
-
-  // Bracket: the escape point should undershoot; go up until a shot overshoots. For very heavy
-  // holes (about 1e13 M_Pl in the Standard Model) even the escape point overshoots and there is
-  // nothing to bracket: say so rather than bisect onto a wrong end.
-  const double s_escape = std::log(L.escape);
-  if (sh.shoot(field_aim(s_escape)).kind == Shot::overshoot)
-    throw NumericalError("static instanton shooting",
-                         fmt::format("phi_h at the escape point {:.4g} GeV already overshoots around {}: the static "
-                                     "bubble is not bracketed",
-                                     L.escape, seed_text(mass)));
-  double last_under = s_escape;
-  long coarse_evaluations = 0;
-  int coarse_steps = 0;
-  const double s_top = std::log(L.true_minimum ? *L.true_minimum : pot.field_max());
-  std::optional<Bracket> bracket = bracket_in_field(sh, s_escape, s_top, minimum.has_value(), mass, last_under);
-  if (!bracket) bracket = bracket_in_gap(sh, *minimum, L.escape, last_under, o, mass);
-  Bisection bis;
-  if (o.shooting_tolerance < coarse_width) {
-    Shooter coarse(pot, r_h, o.back_reaction ? o.newton_G : 0.0,
-                   std::min(coarse_step_max, coarse_step_factor * o.relative_tolerance), L.barrier_top, minimum);
-    const Verified v = narrow_coarsely(coarse, sh, *bracket);
-    bis = bisect(sh, v.bracket, o.shooting_tolerance, v.under, v.over);
-    coarse_evaluations = coarse.evaluations();
-    coarse_steps = v.coarse_steps;
-  } else {
-    bis = bisect(sh, *bracket, o.shooting_tolerance);
-  }
+  const Shooting shot = shoot_bubble(pot, L, minimum, sh, mass, r_h, o);
+  const Bisection& bis = shot.bis;
   const ShotResult &under = bis.under_shot, &over = bis.over_shot;
 
   StaticSolution out;
@@ -244,36 +294,10 @@ StaticSolution solve_static(const higgs::Potential& pot, double mass, const Stat
   // the solution).
   const double x_check = under.launch_x + 0.95 * (std::min(under.stop_x, over.stop_x) - under.launch_x);
   if (o.residual_check) out.max_residual = sh.field_residual(bis.under, x_check, 20000);
-  if (o.back_reaction) {
-    out.remnant_mass = mass;
-    out.seed_mass = mass + out.mass_shift.value;
-    const double k = 4 * units::pi * o.newton_G * (out.seed_mass + mass);
-    out.action = {k * out.mass_shift.value, k * out.mass_shift.error};
-  } else {
-    out.remnant_mass = out.seed_mass = mass;
-    const double k = 8 * units::pi * o.newton_G * mass;  // 1 / T_H
-    out.action = {k * out.mass_shift.value, k * out.mass_shift.error};
-  }
+  set_action(out, mass, o);
   if (o.direct_action && o.back_reaction) out.direct_action = sh.direct_action(bis.under, out.mass_shift.value);
-  if (!(out.action.value > 0) || !std::isfinite(out.action.value) || !std::isfinite(out.action.error))
-    throw NumericalError("static instanton shooting",
-                         fmt::format("B = {:.6g} +- {:.2g} around M = {:.4g} M_Pl (phi_h = {:.4g} GeV): expected a "
-                                     "finite B > 0",
-                                     out.action.value, out.action.error, mass / units::planck_mass, out.phi_horizon));
-  const int n = coarse_steps + bis.steps;
-  const long evaluations = sh.evaluations() + coarse_evaluations;
-  out.summary.bisections = n;
-  out.summary.rhs_evaluations = evaluations;
-  const double rel_err = std::abs(out.action.error / out.action.value);
-  out.summary.status =
-      (rel_err < 1e-4 && !out.at_resolution_limit) ? SolveStatus::converged : SolveStatus::not_converged;
-  out.summary.message = fmt::format(
-      "{} static bubble around M = {:.6g} M_Pl: B = {:.8g} +- {:.2g}, Delta M / M = {:.4g}, phi_h = {:.6g} GeV, "
-      "bubble at r = {:.4g} r_h{}; {} bisections, {} evaluations, {}",
-      o.back_reaction ? "back-reacted" : "probe", mass / units::planck_mass, out.action.value, out.action.error,
-      out.mass_shift.value / mass, out.phi_horizon, out.bubble_radius / r_h,
-      out.horizon_gap ? fmt::format(" (phi_t - phi_h = {:.3g} phi_t)", *out.horizon_gap / *L.true_minimum) : "", n,
-      evaluations, out.max_residual ? fmt::format("residual {:.1e}", *out.max_residual) : "residual not checked");
+  summarise(out, L, mass, r_h, shot.coarse_steps + bis.steps, sh.evaluations() + shot.coarse_evaluations,
+            o.back_reaction);
   return out;
 }
 
