@@ -335,8 +335,13 @@ TEST_CASE("the prescriptions side by side for the Standard Model") {
   const double s_from_p = (4 * std::log(report.bounce_scale / higgs::StabilityOptions{}.hubble_rate) -
                            *report.log10_expected_decays * std::log(10.0));
   CHECK(close(none.action.value, s_from_p, 1e-4));
-  // Flags: below the floor; hot_bubble at the highest temperatures is flagged outside the running.
+  // Flags: below the floor; hot_bubble at a Hawking temperature beyond the running's range is
+  // flagged outside it (T_H = M_Pl^2 / (8 pi M), derived), and inside it is not.
   CHECK(action_at(Prescription::probe_field, s, 10 * m_pl).flags.below_floor);
+  const double mu_max = standard_model().running().mu_max();
+  const double hot_seed = 0.5 * m_pl * m_pl / (8 * pi * mu_max);  // T_H = 2 mu_max
+  CHECK(action_at(Prescription::hot_bubble, s, hot_seed).flags.outside_running);
+  CHECK_FALSE(action_at(Prescription::hot_bubble, s, m).flags.outside_running);
   CHECK_THROWS_AS(action_at(Prescription::thin_wall, s, m), ember::InputError);
 }
 
@@ -347,8 +352,14 @@ TEST_CASE("rates: prefactor models and branching ratios") {
   const Rates root = rates_at(a, ml, Prefactor::root_action), light = rates_at(a, ml, Prefactor::light_crossing);
   // Derived from the two definitions: their ratio is (B/2pi)^(1/2).
   CHECK(close(root.decay_rate / light.decay_rate, std::sqrt(a.action.value / (2 * pi)), 1e-12));
-  CHECK(root.branching_ratio > 0);
-  CHECK(root.branching_ratio <= 1);
+  // The root_action rate written out here: Gamma_D = (B/2pi)^(1/2) e^{-B} / (G M) (Gregory, Moss &
+  // Withers, JHEP 03 (2014) 081, from memory), and the branching ratio of decay against
+  // evaporation, Gamma_D / (Gamma_D + Gamma_H).
+  const double m = 1e6 * m_pl, b = a.action.value;
+  const double gamma_d = std::sqrt(b / (2 * pi)) * std::exp(-b) / (units::newton_G * m);
+  CHECK(close(root.decay_rate, gamma_d, 1e-12));
+  const double gamma_h = ml.alpha(m) / (m * m * m);
+  CHECK(close(root.branching_ratio, gamma_d / (gamma_d + gamma_h), 1e-12));
   // Gamma_H = alpha / M^3 (derived from dM/dt = -alpha/M^2).
   CHECK(close(root.evaporation_rate, ml.alpha(1e6 * m_pl) / std::pow(1e6 * m_pl, 3), 1e-12));
 }

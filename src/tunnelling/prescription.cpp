@@ -220,6 +220,7 @@ ActionPoint hot_bubble(const TunnellingSetup& s, double seed) {
         "potential form");
   const double t = 1 / (8 * pi * s.newton_G * seed);  // T_H
   const higgs::Running& run = s.standard_model->running();
+  const bool outside_running = t > run.mu_max() || t < run.mu_min();
   ThermalPotential thermal(*s.potential, thermal_mass_squared(*s.standard_model, t));
   FlatBounceOptions o;
   o.dimensions = 3;
@@ -227,14 +228,18 @@ ActionPoint hot_bubble(const TunnellingSetup& s, double seed) {
   try {
     b = solve_flat_bounce(thermal, o);
   } catch (const InputError&) {
-    return no_decay(seed, fmt::format("thermal mass at T_H = {:.3g} GeV lifts the potential everywhere: no bubble", t));
+    // "No bubble" is as uncertain as the couplings behind the thermal mass: flagged the same way.
+    ActionPoint none =
+        no_decay(seed, fmt::format("thermal mass at T_H = {:.3g} GeV lifts the potential everywhere: no bubble", t));
+    none.flags.outside_running = outside_running;
+    return none;
   }
   ActionPoint a;
   a.seed_mass = a.remnant_mass = seed;
   a.action = {b.action.value / t, b.action.error / t};
   a.own_prefactor =
       s.hot_bubble_volume * horizon_volume(s, seed) * std::pow(t, 4) * std::pow(a.action.value / (2 * pi), 1.5);
-  a.flags.outside_running = t > run.mu_max() || t < run.mu_min();
+  a.flags.outside_running = outside_running;
   a.flags.unconverged = b.summary.status != SolveStatus::converged;
   a.note = fmt::format("T_H = {:.4g} GeV; {}", t, b.summary.message);
   return a;

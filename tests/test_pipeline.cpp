@@ -1,0 +1,241 @@
+// The main job (pipeline::run_job) end to end: verdicts, thread and chunk independence,
+// checkpoints, bands, failed points, and N against an independent light-cone count.
+#include <doctest/doctest.h>
+#include <unistd.h>
+
+#include <cmath>
+#include <filesystem>
+#include <iterator>
+
+#include "ember/core/errors.hpp"
+#include "ember/pipeline/job.hpp"
+#include "ember/scenario/load.hpp"
+#include "ember/units/constants.hpp"
+#include "support.hpp"
+
+using namespace ember;
+namespace u = ember::units;
+using ember::testing::close;
+using ember::testing::source_dir;
+
+namespace {
+// The number of holes formed inside our past light cone per unit beta, computed here without the
+// cosmology module: radiation era, t_f = G M / gamma (Carr, ApJ 201 (1975) 1; gamma = 0.2, common
+// practice), rho = 3 / (32 pi G t^2) (Friedmann, radiation era), rho = (pi^2/30) g T^4 with
+// g = g_s = 106.75 (the Standard Model above the electroweak scale; Kolb & Turner, The Early
+// Universe, 1990, sec. 3.3), entropy conservation a_f = (3.91 / 106.75)^(1/3) T_0 / T_f with
+// T_0 = 2.7255 K (Fixsen, ApJ 707 (2009) 916), and the light cone's comoving radius at t_f ~ 0
+// the particle horizon, 14.2 Gpc (Planck 2018; common practice). Good to a few per cent.
+double independent_count_per_beta(double mass) {
+  const double gamma = 0.2, g = 106.75;
+  const double t_f = u::newton_G * mass / gamma;
+  const double rho = 3 / (32 * u::pi * u::newton_G * t_f * t_f);
+  const double temperature = std::pow(30 * rho / (u::pi * u::pi * g), 0.25);
+  const double a_f = std::cbrt(3.91 / g) * 2.7255 * u::kelvin / temperature;
+  const double chi = 14.2e9 * u::parsec;
+  return rho / mass * a_f * a_f * a_f * 4 * u::pi / 3 * chi * chi * chi;
+}
+
+}  // namespace
+
+TEST_CASE("a stable potential gives no constraint, and says so") {
+  // M_t = 168 GeV is below the critical top mass (test_higgs.cpp): the vacuum is stable.
+  const auto loaded = scenario::load_scenario_text(
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-20}\n"
+      "standard_model: {top_mass: 168 GeV}\ntunnelling: {prescriptions: [probe_field, hot_bubble]}\n"
+      "scan: {masses: {from: 1 g, to: 1e12 g, points: 4}}\n",
+      "stable.yaml", ".");
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  CHECK(r.no_constraint);
+  CHECK(r.no_constraint_reason.find("stable") != std::string::npos);
+  for (const auto& o : r.outcomes) {
+    CHECK(o.counts.lightcone == 0.0);
+    CHECK_FALSE(o.excluded);
+    for (const auto& row : o.curve) CHECK_FALSE(row.beta_max);
+  }
+}
+
+TEST_CASE("results do not depend on the thread count") {
+  auto loaded = scenario::load_scenario_file(source_dir / "configs/higgs_sensitivity.yaml");
+  loaded.scenario.scan.masses.points = 3;
+  loaded.scenario.scan.band.top_mass.points = 2;
+  loaded.scenario.scan.band.higgs_mass.points = 1;
+  loaded.scenario.scan.band.alpha_s.points = 1;
+  loaded.scenario.scan.band.lambda6.clear();
+  // And the chunks of formation masses the work is shared out in (one row each, against the
+  // default): a division of work only, so the same bits (derived).
+  // With max_chunks = 1 the bound wins over rows_per_chunk: one chunk per table.
+  pipeline::JobOptions one, two, fine, bounded;
+  one.threads = 1;
+  two.threads = 2;
+  fine.threads = 2;
+  fine.rows_per_chunk = 1;
+  bounded.rows_per_chunk = 1;
+  bounded.max_chunks = 1;
+  const pipeline::JobResults a = pipeline::run_job(loaded.scenario, one);
+  for (const auto* options : {&two, &fine, &bounded}) {
+    const pipeline::JobResults b = pipeline::run_job(loaded.scenario, *options);
+    REQUIRE(a.outcomes.size() == b.outcomes.size());
+    for (std::size_t k = 0; k < a.outcomes.size(); ++k) {
+      CHECK(a.outcomes[k].counts.lightcone == b.outcomes[k].counts.lightcone);  // bit for bit
+      REQUIRE(a.outcomes[k].curve.size() == b.outcomes[k].curve.size());
+      for (std::size_t r = 0; r < a.outcomes[k].curve.size(); ++r) {
+        CHECK(a.outcomes[k].curve[r].beta_max == b.outcomes[k].curve[r].beta_max);
+        CHECK(a.outcomes[k].curve[r].band_low == b.outcomes[k].curve[r].band_low);
+        CHECK(a.outcomes[k].curve[r].band_high == b.outcomes[k].curve[r].band_high);
+      }
+      REQUIRE(a.outcomes[k].scan.size() == b.outcomes[k].scan.size());
+      for (std::size_t r = 0; r < a.outcomes[k].scan.size(); ++r)
+        CHECK(a.outcomes[k].scan[r].decay.hazard == b.outcomes[k].scan[r].decay.hazard);
+    }
+  }
+  CHECK(a.band.size() == 3);  // the central point and M_t at -2 and +2 sigma
+}
+
+TEST_CASE("checkpoint files stay bounded however fine the grid, and a rerun resumes from them") {
+  // 3000 scan rows at 8 per chunk would be 375 chunk files; the bound (max_chunks, 256) holds
+  // them to 256 beside the one table and the identity, and a rerun computes nothing.
+  const auto loaded = scenario::load_scenario_text(
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-20}\n"
+      "tunnelling: {prescriptions: [probe_field]}\nscan: {masses: {from: 1 g, to: 1e12 g, points: 3000}}\n",
+      "many_rows.yaml", ".");
+  const auto dir = std::filesystem::temp_directory_path() / ("ember-checkpoint-bound-" + std::to_string(::getpid()));
+  std::filesystem::remove_all(dir);
+  pipeline::JobOptions o;
+  o.table_points = 8;  // bookkeeping only: the table's accuracy is not what is tested
+  o.checkpoint = pipeline::CheckpointOptions{dir, "bound test", false};
+  const pipeline::JobResults first = pipeline::run_job(loaded.scenario, o);
+  const auto files = static_cast<int>(std::distance(std::filesystem::directory_iterator(dir), {}));
+  CHECK(files == 1 + 1 + o.max_chunks);
+  const pipeline::JobResults again = pipeline::run_job(loaded.scenario, o);
+  CHECK(again.items_resumed == 1 + o.max_chunks);
+  REQUIRE(first.outcomes.at(0).curve.size() == 3000);
+  for (std::size_t r = 0; r < 3000; ++r)
+    CHECK(first.outcomes[0].curve[r].beta_max == again.outcomes[0].curve[r].beta_max);
+  std::filesystem::remove_all(dir);
+}
+
+TEST_CASE("a band mixing stable and metastable points, with widths, lambda6 and a light-cone count") {
+  // Derived checks of the job's bookkeeping: a band over M_t +- 2 GeV (the low end is
+  // stable: the critical top mass is about 171 GeV, Buttazzo et al. JHEP 12 (2013) 089, from
+  // memory; the test reads each point's verdict rather than assuming it) and lambda6 = 3.
+  const auto loaded = scenario::load_scenario_text(R"(
+population:
+  spectrum: {shape: lognormal, peak_mass: 1e9 g, width: 0.5}
+  abundance: {measure: lightcone_count, value: 3}
+standard_model: {loops: 2}
+tunnelling: {prescriptions: [probe_field]}
+scan:
+  masses: {from: 1e8 g, to: 1e10 g, points: 2}
+  widths: [0.3, 0.6]
+  band:
+    top_mass: {span: 2, points: 3, sigma: 1 GeV}
+    lambda6: [3.0]
+)",
+                                                   "band.yaml", ".");
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  // The central point, then 3 top masses x {0, 3} for lambda6 less the central one: 6 points.
+  REQUIRE(r.band.size() == 6);
+  int stable = 0, with_lambda6 = 0;
+  for (const auto& b : r.band) {
+    if (b.verdict == higgs::Verdict::stable) {
+      ++stable;
+      CHECK_FALSE(b.constraint);  // a stable point constrains nothing
+    }
+    with_lambda6 += b.point.lambda6 == 3.0;
+  }
+  CHECK(stable == 2);  // M_t = 170.57 GeV with and without lambda6
+  CHECK(with_lambda6 == 3);
+  const auto& o = r.outcomes.at(0);
+  // Rows: 2 characteristic masses x 2 widths, and the widths change the answer.
+  REQUIRE(o.curve.size() == 4);
+  CHECK(o.curve[0].width == 0.3);
+  CHECK(o.curve[1].width == 0.6);
+  REQUIRE(o.curve[0].beta_max);
+  REQUIRE(o.curve[1].beta_max);
+  CHECK(*o.curve[0].beta_max != *o.curve[1].beta_max);
+  for (const auto& row : o.curve) {
+    CHECK(row.band_without == 2);  // exactly the stable points
+    REQUIRE(row.band_low);
+    REQUIRE(row.band_high);
+    CHECK(*row.band_low <= *row.beta_max);
+    CHECK(*row.beta_max <= *row.band_high);
+  }
+  // The abundance given as a light-cone count comes back as that count.
+  CHECK(close(o.counts.lightcone, 3.0, 1e-6));
+  CHECK(o.excluded);
+}
+
+TEST_CASE("a failed point is recorded with its reason, and the rest of the scan goes on") {
+  // Derived (the job's contract: a failure is recorded, never fatal): failures are injected through
+  // JobOptions::before_row, as a solver would throw them; every other number must equal the run without failures.
+  auto loaded = scenario::load_scenario_file(source_dir / "configs/higgs_sensitivity.yaml");
+  loaded.scenario.scan.masses.points = 3;
+  loaded.scenario.scan.band.top_mass.points = 2;
+  loaded.scenario.scan.band.higgs_mass.points = 1;
+  loaded.scenario.scan.band.alpha_s.points = 1;
+  loaded.scenario.scan.band.lambda6.clear();
+  loaded.scenario.tunnelling.prescriptions = {tunnelling::Prescription::probe_field};
+  pipeline::JobOptions plain, failing;
+  failing.before_row = [](std::size_t point, std::size_t, std::size_t row) {
+    if (point == 1 && row == 1) throw ember::NumericalError("test solver", "injected at row 1 of point 1");
+    if (point == 0 && row == 3) throw ember::NumericalError("test solver", "injected in the central counts");
+  };
+  const pipeline::JobResults a = pipeline::run_job(loaded.scenario, plain);
+  const pipeline::JobResults b = pipeline::run_job(loaded.scenario, failing);
+  CHECK(a.failures.empty());
+  REQUIRE(b.failures.size() == 2);
+  // In scan order: the central point's unit, then point 1's row 1.
+  CHECK(b.failures[0].point == 0);
+  CHECK_FALSE(b.failures[0].mass);
+  CHECK(b.failures[0].reason.find("injected in the central counts") != std::string::npos);
+  CHECK(b.failures[1].point == 1);
+  REQUIRE(b.failures[1].mass);
+  CHECK(*b.failures[1].mass == a.outcomes[0].curve[1].mass);
+  CHECK(b.failures[1].prescription == "probe_field");
+  CHECK(b.failures[1].reason.find("test solver: injected at row 1") != std::string::npos);
+  // The central unit failed as a whole: no verdict, no curve, but the band points still count.
+  const auto& o = b.outcomes[0];
+  CHECK_FALSE(o.failure.empty());
+  CHECK_FALSE(o.excluded);
+  for (const auto& row : o.curve) {
+    CHECK(row.failed);
+    CHECK_FALSE(row.beta_max);
+  }
+  CHECK(b.band[0].failed);
+  CHECK(b.band[1].failed);
+  CHECK_FALSE(b.band[2].failed);
+  // Point 2 is untouched and point 1 lost only row 1; the central value lies inside the band
+  // (beta_max moves monotonically with M_t), so the envelope edges at rows 0 and 2 are as before.
+  for (std::size_t r : {0u, 2u}) {
+    CAPTURE(r);
+    CHECK(o.curve[r].band_high == a.outcomes[0].curve[r].band_high);
+  }
+}
+
+TEST_CASE("end to end: where every hole decays, N is beta times the holes formed in our light cone") {
+  // A 1e10 g hole evaporates at about 1e-5 s (test_evaporation: 407 s (M / 1e10 g)^3 f-scaled), and
+  // on the way its seeded rate outruns evaporation once the seed is light (entropy_drop,
+  // probe_field): the decay is certain, so N = beta x (holes formed inside our past light cone).
+  auto loaded = scenario::load_scenario_file(source_dir / "configs/demo.yaml");
+  const double mass = 1e10 * u::gram, beta = 1e-30;
+  loaded.scenario.population.spectrum = scenario::Monochromatic{mass};
+  loaded.scenario.population.abundance = {population::AbundanceMeasure::beta, beta};
+  loaded.scenario.scan.masses.points = 4;
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  REQUIRE(r.stability);
+  CHECK(r.stability->verdict == higgs::Verdict::metastable);
+  const double holes = beta * independent_count_per_beta(mass);
+  REQUIRE(r.outcomes.size() == 4);
+  for (const auto& o : r.outcomes) {
+    CAPTURE(tunnelling::name_of(o.prescription));
+    CHECK(o.curve.size() == 4);
+    // No prescription decays a hole more than once.
+    CHECK(o.counts.lightcone <= 1.05 * holes);
+    if (o.prescription == tunnelling::Prescription::entropy_drop ||
+        o.prescription == tunnelling::Prescription::probe_field) {
+      CHECK(close(o.counts.lightcone, holes, 0.03));  // measured: 1.0%
+      CHECK(close(o.survival, std::exp(-o.counts.lightcone), 1e-12));
+    }
+  }
+}
