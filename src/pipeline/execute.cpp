@@ -63,7 +63,7 @@ Executed execute(JobPlan& plan) {
   if (o.checkpoint && executor.assembles()) checkpoint.emplace(*o.checkpoint);
   Executed out;
   out.texts.resize(plan.items());
-  const std::vector<std::size_t> pending = executor.agree(unfinished(plan, checkpoint, out.texts, out.resumed));
+  const std::vector<std::size_t> pending = unfinished(plan, checkpoint, out.texts, out.resumed);
   const auto split =
       std::partition_point(pending.begin(), pending.end(), [&](std::size_t i) { return plan.item(i).is_table; });
   out.computed_tables.assign(pending.begin(), split);

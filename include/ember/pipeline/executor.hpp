@@ -18,9 +18,8 @@ class Executor {
   virtual ~Executor() = default;
   // Computes work(i) for every i in `pending`. On the assembling process done(i, text) is called
   // once per item, never two at a time; if any item throws, the lowest index's error is rethrown.
+  // Only the assembling process's `pending` decides the work (MPI: rank 0 hands items out).
   virtual void run(const std::vector<std::size_t>& pending, const ItemWork& work, const ItemDone& done) const = 0;
-  // The assembling process's list, shared with every process (all must agree on the work).
-  virtual std::vector<std::size_t> agree(const std::vector<std::size_t>& pending) const { return pending; }
   // Gives every process the assembling process's texts (MPI: a broadcast from rank 0); called by
   // every process at the same point.
   virtual std::vector<std::string> share(std::vector<std::string> texts) const { return texts; }
