@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "ember/cosmology/background.hpp"
+#include "ember/population/plasma.hpp"
 #include "ember/units/constants.hpp"
 #include "support.hpp"
 
@@ -36,4 +37,20 @@ TEST_CASE("the Planck 2018 background") {
   const double t = 1e-23 * u::second;
   CHECK(close(b.horizon_mass(t), t / u::newton_G, 1e-3));
   CHECK(close(0.2 * b.horizon_mass(t), gram(1e15), 0.25));
+}
+
+TEST_CASE("the plasma temperature follows the radiation era's T(t)") {
+  // Radiation era, Friedmann: t = (45 / (16 pi^3 g))^(1/2) M_Pl / T^2 = 0.301 g^(-1/2) M_Pl / T^2
+  // (Kolb & Turner, The Early Universe, 1990, eq. 3.29, from memory; derived here from
+  // rho = 3 / (32 pi G t^2) and rho = (pi^2/30) g T^4), with g the plasma's own g_rho(T): about
+  // 104.4 above the electroweak scale in the shipped table (Saikawa & Shirai, JCAP 05 (2018)
+  // 035), not the ideal gas's 106.75. Matter and Lambda are negligible here.
+  for (const double temperature : {1e5, 1e9, 1e13}) {
+    CAPTURE(temperature);
+    const double g = 30 * background().radiation_density(temperature) / (u::pi * u::pi * std::pow(temperature, 4));
+    CHECK(g > 104);
+    CHECK(g < 105);
+    const double t = std::sqrt(45 / (16 * std::pow(u::pi, 3) * g)) * u::planck_mass / (temperature * temperature);
+    CHECK(close(population::plasma_temperature(background(), t), temperature, 1e-3));
+  }
 }

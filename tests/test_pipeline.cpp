@@ -1,11 +1,14 @@
 // The main job (pipeline::run_job) end to end: verdicts, thread and chunk independence,
 // checkpoints, bands, failed points, and N against an independent light-cone count.
 #include <doctest/doctest.h>
+#include <fmt/format.h>
 #include <unistd.h>
 
 #include <cmath>
 #include <filesystem>
 #include <iterator>
+#include <string>
+#include <tuple>
 
 #include "ember/core/errors.hpp"
 #include "ember/pipeline/job.hpp"
@@ -259,4 +262,62 @@ TEST_CASE("end to end on the demo as shipped: the lognormal's count follows from
       CAPTURE(o.counts.lightcone / expected);
       CHECK(close(o.counts.lightcone, expected, 0.03));  // measured: 1.4%
     }
+}
+
+namespace {
+pipeline::JobResults monochromatic_run(const std::string& mass, const std::string& tunnelling) {
+  const auto loaded = scenario::load_scenario_text(
+      "population:\n  spectrum: {shape: monochromatic, mass: " + mass +
+          "}\n  abundance: {measure: beta, value: 1e-30}\ntunnelling: {prescriptions: [probe_field], " + tunnelling +
+          "}\nscan: {masses: {from: 1 g, to: 1e4 g, points: 2}}\n",
+      "hot_era.yaml", ".");
+  return pipeline::run_job(loaded.scenario);
+}
+}  // namespace
+
+TEST_CASE("the hot era: a 1 g hole evaporates before the plasma lets its bubble form; a 1e3 g hole does not") {
+  // The static bubble's field at the horizon is about 1.5e11 GeV (ember bounce). The plasma's
+  // thermal mass, m_T^2 ~ 0.1 T^2, holds that field in the false vacuum while
+  // m_T^2 phi^2 / 2 > -V(phi) = |lambda_eff| phi^4 / 4, i.e. until T ~ 0.15 phi ~ 2e10 GeV, which
+  // the radiation era reaches at t ~ 0.3 g^(-1/2) M_Pl / T^2 ~ 4e-28 s (derived). A 1 g hole lives
+  // about 4e-28 s (407 s x (1e-10)^3, MacGibbon 1991 scaled, from memory), so postponing the hot
+  // era's hazard removes nearly all of its decays; a 1e3 g hole lives 1e9 times longer and still
+  // decays for certain once the plasma has cooled.
+  const pipeline::JobResults light = monochromatic_run("1 g", "hot_era: postpone");
+  const population::Counts& c = light.outcomes.at(0).counts;
+  CHECK(c.lightcone == c.lightcone_postponed);  // the default treatment is the headline N
+  CHECK(c.lightcone_counted > 0);
+  CHECK(c.lightcone_postponed < 1e-3 * c.lightcone_counted);
+  const pipeline::JobResults counted = monochromatic_run("1 g", "hot_era: count");
+  CHECK(counted.outcomes.at(0).counts.lightcone == counted.outcomes.at(0).counts.lightcone_counted);
+  CHECK(close(counted.outcomes.at(0).counts.lightcone, c.lightcone_counted, 1e-12));
+
+  const pipeline::JobResults heavy = monochromatic_run("1e3 g", "hot_era: postpone");
+  const population::Counts& h = heavy.outcomes.at(0).counts;
+  CHECK(h.lightcone_counted > 0);
+  CHECK(close(h.lightcone_postponed, h.lightcone_counted, 1e-6));
+  // Its decay waits for the cold plasma: the plasma at the decay is colder than the 1 g hole's
+  // whole hot era (the field is held until about 2e10 GeV).
+  const population::Decay& d = heavy.outcomes.at(0).scan.back().decay;  // the 1e4 g row
+  REQUIRE(d.cooled_time);
+  CHECK(d.plasma_at_decay < 1e11);
+  CHECK(d.plasma_at_decay > 0);
+}
+
+TEST_CASE("the share of N resting on B below the minimum action") {
+  // A hole of 1e7 M_Pl (218 g) forms with B ~ 244 (ember bounce: B ~ 2.46e-5 M / M_Pl for the
+  // Standard Model) and decays once Gamma_D / Gamma_H ~ sqrt(B/2 pi) e^-B (G M Gamma_H)^-1 passes
+  // one, near B ~ 34 (derived from the scan's ratio 9.6e3 at B = 24.6). With minimum_action = 1
+  // no decay rests on B < 1; with 50 all of it does: the hazard accumulated while B > 50 is
+  // about e^-(50 - 34) ~ 1e-7.
+  const double mass = 1e7 * u::planck_mass / u::gram;
+  const std::string m = fmt::format("{} g", mass);
+  for (const auto& [minimum, low, high] : {std::tuple{"1", 0.0, 1e-6}, std::tuple{"50", 0.999, 1.0}}) {
+    CAPTURE(minimum);
+    const population::Counts c = monochromatic_run(m, std::string("minimum_action: ") + minimum).outcomes.at(0).counts;
+    REQUIRE(c.lightcone > 0);
+    const double share = 1 - c.lightcone_semiclassical / c.lightcone;
+    CHECK(share >= low - 1e-12);
+    CHECK(share <= high + 1e-12);
+  }
 }

@@ -173,3 +173,30 @@ TEST_CASE("formable masses: after T = 1e19 GeV and before today") {
   CHECK_NOTHROW(population::formation_of(r.high, 0.2, background()));
   CHECK_THROWS_AS(population::formation_of(0.99 * r.low, 0.2, background()), InputError);
 }
+
+TEST_CASE("a prompt decay happens 1/Gamma_D after formation, not a grid step later") {
+  // With Gamma_D far above the hole's evaporation rate, the waiting time is exponential at the
+  // formation rate: mean 1/Gamma_D (derived). A 1 g hole under probe_field has B ~ 1.1
+  // (ember bounce) and Gamma_D ~ 1e37 /s, so it decays ~1e-37 s after formation, while one step
+  // of the decay grid spans ~1e-31 s of its life. The hot era is counted here: postponed, the
+  // plasma holds the bubble back (test_pipeline).
+  population::ResponseContext c = context();
+  c.decay.hot_era = population::HotEra::count;
+  const population::Response r = population::response_at(gram(1), probe_table(), c);
+  const tunnelling::Rates at_formation =
+      tunnelling::rates_at(probe_table().at(gram(1)), mass_loss(), c.decay.prefactor, u::newton_G);
+  REQUIRE(r.decay.probability == doctest::Approx(1));
+  CHECK(close(r.decay.decay_time - r.formation.time, 1 / at_formation.decay_rate, 0.01));
+  // The plasma then is the plasma at formation, far hotter than the hole.
+  CHECK(r.decay.plasma_at_decay > 100 * 1 / (8 * u::pi * u::newton_G * gram(1)));
+  // Postponed by rule (a) alone (T_p < T_H, reached at ~2e-33 s: t = 0.3 g^(-1/2) M_Pl / T_H^2,
+  // derived), the hole still decays long before its end (~4e-28 s); with rule (b) too (the
+  // Standard Model's thermal mass at the bubble's field, plasma.hpp) it does not.
+  CHECK(r.decay.postponed.probability == doctest::Approx(1));
+  REQUIRE(r.decay.cooled_time);
+  CHECK(*r.decay.cooled_time < 1e-32 * u::second);
+  c.standard_model = &standard_model();
+  const population::Response held = population::response_at(gram(1), probe_table(), c);
+  CHECK(held.decay.postponed.probability < 1e-3);
+  CHECK(held.decay.counted.probability == doctest::Approx(1));
+}

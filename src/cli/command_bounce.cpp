@@ -33,6 +33,7 @@ struct BounceOptions {
       prefactor = "root_action",
       floor = fmt::format("{} Mpl", format_real(TunnellingSetup{}.semiclassical_floor / u::planck_mass));
   double hot_bubble_volume = 1;
+  double minimum_action = TunnellingSetup{}.minimum_action;
 };
 
 std::vector<std::string> split_list(const std::string& text) {
@@ -74,6 +75,8 @@ Context build(const BounceOptions& o) {
   c.setup.semiclassical_floor = quantity_option("--floor", o.floor, u::mass);
   c.setup.hot_bubble_volume = o.hot_bubble_volume;
   if (!(o.hot_bubble_volume > 0)) throw InputError("--hot-bubble-volume: expected a number > 0");
+  if (!(o.minimum_action > 0)) throw InputError("--minimum-action: expected a number > 0");
+  c.setup.minimum_action = o.minimum_action;
   if (o.prefactor != "root_action" && o.prefactor != "light_crossing")
     throw InputError(fmt::format("--prefactor {}: unknown; expected root_action or light_crossing", o.prefactor));
   c.prefactor = o.prefactor == "root_action" ? Prefactor::root_action : Prefactor::light_crossing;
@@ -124,6 +127,12 @@ std::string describe_model(const BounceOptions& o, const Context& c) {
   return fmt::format("thin wall, sigma = {}, epsilon = {}", o.tension, o.energy_gap);
 }
 
+// Gamma_D / Gamma_H: the ratio "decay outruns evaporation" refers to (the branching ratio is
+// Gamma_D / (Gamma_D + Gamma_H)).
+double ratio_of(const Rates& r) {
+  return r.evaporation_rate > 0 ? r.decay_rate / r.evaporation_rate : 0.0;
+}
+
 nlohmann::ordered_json finite_or_null(double x) {
   return std::isfinite(x) ? nlohmann::ordered_json(x) : nullptr;
 }
@@ -148,6 +157,7 @@ int single(const BounceOptions& o) {
                      {"decay_rate_per_s", r.decay_rate * u::second},
                      {"evaporation_rate_per_s", r.evaporation_rate * u::second},
                      {"branching_ratio", r.branching_ratio},
+                     {"decay_to_evaporation", ratio_of(r)},
                      {"prefactor", a.own_prefactor ? "own (see assumptions)" : name_of(c.prefactor)},
                      {fmt::format("decay_rate_{}_per_s", name_of(other)), r_other.decay_rate * u::second},
                      {"flags", flags},
@@ -156,18 +166,20 @@ int single(const BounceOptions& o) {
                      {"note", a.note}};
     text += fmt::format(
         "{:<13} B = {:<12} remnant {:.6g} M_Pl  phi_h {} GeV\n"
-        "              Gamma_D = {:.4e} /s ({:.4e} /s with {})  Gamma_H = {:.4e} /s  branching ratio {:.6g}{}\n",
+        "              Gamma_D = {:.4e} /s ({:.4e} /s with {})  Gamma_H = {:.4e} /s  Gamma_D/Gamma_H {:.6g}  "
+        "branching ratio Gamma_D/(Gamma_D+Gamma_H) {:.6g}{}\n",
         name_of(p), a.flags.no_decay ? std::string("none") : fmt::format("{:.6g}", a.action.value),
         a.remnant_mass / u::planck_mass, a.phi_horizon > 0 ? fmt::format("{:.4g}", a.phi_horizon) : std::string("n/a"),
         r.decay_rate * u::second, r_other.decay_rate * u::second,
         a.own_prefactor ? std::string("its own prefactor") : name_of(other), r.evaporation_rate * u::second,
-        r.branching_ratio, flags.empty() ? "" : fmt::format("\n              flags: {}", fmt::join(flags, ", ")));
+        ratio_of(r), r.branching_ratio,
+        flags.empty() ? "" : fmt::format("\n              flags: {}", fmt::join(flags, ", ")));
   }
   text += fmt::format(
       "prefactor: {} (A = (B/2pi)^(1/2)/(G M) for root_action, 1/(G M) for light_crossing; hot_bubble and no_seed use "
-      "their own)\nvalidity: semiclassical only for seeds above {:.3g} M_Pl; the constraint disappears if new physics "
-      "stabilises the potential\n",
-      name_of(c.prefactor), c.setup.semiclassical_floor / u::planck_mass);
+      "their own)\nvalidity: semiclassical only for seeds above {:.3g} M_Pl and for B above {} (flag "
+      "below_minimum_action); the constraint disappears if new physics stabilises the potential\n",
+      name_of(c.prefactor), c.setup.semiclassical_floor / u::planck_mass, format_real(c.setup.minimum_action));
   if (o.json)
     print_json(j);
   else
@@ -187,10 +199,13 @@ int scan(const BounceOptions& o) {
   std::string csv = fmt::format(
       "# Ember seeded bounce scan; potential: {}\n# columns: seed_mass_Mpl, seed_mass_g, then per "
       "prescription B (dimensionless; empty when no bubble forms), branching ratio "
-      "Gamma_D/(Gamma_D+Gamma_H), flags\n# prefactor {}; semiclassical floor {:.3g} M_Pl\n"
+      "Gamma_D/(Gamma_D+Gamma_H), ratio Gamma_D/Gamma_H, flags\n# prefactor {}; semiclassical floor {:.3g} M_Pl; "
+      "B below {} flagged below_minimum_action\n"
       "seed_mass_Mpl,seed_mass_g",
-      describe_model(o, c), name_of(c.prefactor), c.setup.semiclassical_floor / u::planck_mass);
-  for (const Prescription p : c.prescriptions) csv += fmt::format(",B_{0},branching_{0},flags_{0}", name_of(p));
+      describe_model(o, c), name_of(c.prefactor), c.setup.semiclassical_floor / u::planck_mass,
+      format_real(c.setup.minimum_action));
+  for (const Prescription p : c.prescriptions)
+    csv += fmt::format(",B_{0},branching_{0},ratio_{0},flags_{0}", name_of(p));
   csv += "\n";
   // --json: the same rows as one object; B is null where no bubble forms.
   nlohmann::ordered_json rows = nlohmann::ordered_json::array();
@@ -203,10 +218,12 @@ int scan(const BounceOptions& o) {
     for (const Prescription p : c.prescriptions) {
       const ActionPoint a = action_at(p, c.setup, m);
       const Rates r = rates_at(a, *c.mass_loss, c.prefactor, c.setup.newton_G);
-      csv += fmt::format(",{},{:.8e},{}", a.flags.no_decay ? std::string() : fmt::format("{:.10e}", a.action.value),
-                         r.branching_ratio, fmt::join(a.flags.list(), ";"));
+      csv +=
+          fmt::format(",{},{:.8e},{:.8e},{}", a.flags.no_decay ? std::string() : fmt::format("{:.10e}", a.action.value),
+                      r.branching_ratio, ratio_of(r), fmt::join(a.flags.list(), ";"));
       row[name_of(p)] = {{"B", a.flags.no_decay ? nlohmann::ordered_json() : nlohmann::ordered_json(a.action.value)},
                          {"branching_ratio", r.branching_ratio},
+                         {"decay_to_evaporation", ratio_of(r)},
                          {"flags", a.flags.list()}};
     }
     rows.push_back(std::move(row));
@@ -265,6 +282,9 @@ Command add_bounce(CLI::App& parent) {
   app->add_option("--floor", o->floor, fmt::format("semiclassical floor on the seed mass (default {})", o->floor));
   app->add_option("--hot-bubble-volume", o->hot_bubble_volume,
                   "hot_bubble: nucleation volume in units of 4 pi r_h^3/3");
+  app->add_option(
+      "--minimum-action", o->minimum_action,
+      fmt::format("flag B below this (default {}: common practice, of order 1)", format_real(o->minimum_action)));
   app->add_flag("--json", o->json, "print one JSON object on stdout");
   app->add_flag("--quiet", o->quiet, "--scan: no progress bar");
   return {app, [o] {

@@ -53,6 +53,7 @@ void central_outcome(const JobPlan& plan, const ItemResult& item, PrescriptionOu
   outcome.excluded = item.failure.empty() && item.counts.lightcone > plan.scenario->exclusion.max_decays;
   outcome.table_summary = item.table_summary;
   outcome.plot_ratio = item.plot_ratio;
+  outcome.plot_low_action = item.plot_low_action;
   outcome.failure = item.failure;
 }
 

@@ -16,7 +16,12 @@ void write(RecordWriter& w, const population::Response& r) {
   w.real(r.count_per_beta).real(f.mass).real(f.time).real(f.scale_factor).real(f.temperature).real(f.total_density);
   w.real(d.hazard).real(d.hazard_in_time).real(d.probability).flag(d.evaporated).real(d.lifetime).real(d.end_mass);
   w.maybe_real(d.crossover_mass).real(d.branching_at_crossover).real(d.decay_time).real(d.lightcone_radius);
-  w.flag(d.decays_below_floor).flag(d.formed_below_floor).end_line();
+  w.flag(d.decays_below_floor).flag(d.formed_below_floor);
+  for (const population::Treatment* t : {&d.counted, &d.postponed})
+    w.real(t->hazard).real(t->probability).real(t->decay_time).real(t->lightcone_radius);
+  w.real(d.probability_semiclassical).real(d.plasma_at_decay).real(d.plasma_at_crossover).maybe_real(d.cooled_time);
+  w.real(r.lightcone_per_beta_counted).real(r.lightcone_per_beta_postponed).real(r.lightcone_per_beta_semiclassical);
+  w.end_line();
 }
 
 population::Response read_response(RecordReader& in) {
@@ -46,6 +51,19 @@ population::Response read_response(RecordReader& in) {
   d.lightcone_radius = in.real();
   d.decays_below_floor = in.flag();
   d.formed_below_floor = in.flag();
+  for (population::Treatment* t : {&d.counted, &d.postponed}) {
+    t->hazard = in.real();
+    t->probability = in.real();
+    t->decay_time = in.real();
+    t->lightcone_radius = in.real();
+  }
+  d.probability_semiclassical = in.real();
+  d.plasma_at_decay = in.real();
+  d.plasma_at_crossover = in.real();
+  d.cooled_time = in.maybe_real();
+  r.lightcone_per_beta_counted = in.real();
+  r.lightcone_per_beta_postponed = in.real();
+  r.lightcone_per_beta_semiclassical = in.real();
   return r;
 }
 
@@ -53,16 +71,18 @@ population::Response read_response(RecordReader& in) {
 
 std::string to_text(const ItemResult& u) {
   RecordWriter w;
-  w.word("ember-item").whole(2).end_line();
+  w.word("ember-item").whole(3).end_line();
   w.word("rows").whole(static_cast<long long>(u.beta_max.size()));
   for (std::size_t i = 0; i < u.beta_max.size(); ++i) w.maybe_real(u.beta_max[i]).maybe_real(u.f_max[i]);
   w.end_line();
   w.word("scan").whole(static_cast<long long>(u.scan.size())).end_line();
   for (const auto& r : u.scan) write(w, r);
   const auto& c = u.counts;
-  w.word("counts").real(c.lightcone).real(c.hubble).real(c.f_pbh).real(c.beta).real(c.from_evaporated).end_line();
+  w.word("counts").real(c.lightcone).real(c.hubble).real(c.f_pbh).real(c.beta).real(c.from_evaporated);
+  w.real(c.lightcone_counted).real(c.lightcone_postponed).real(c.lightcone_semiclassical).end_line();
   w.word("plot").whole(static_cast<long long>(u.plot_ratio.size()));
   for (double x : u.plot_ratio) w.real(x);
+  for (bool low : u.plot_low_action) w.flag(low);
   w.end_line();
   w.word("cache").word(!u.cache_hit ? "-" : *u.cache_hit ? "1" : "0").end_line();
   w.text_line("summary", u.table_summary);
@@ -76,7 +96,7 @@ ItemResult item_from_text(const std::string& text, const std::string& what) {
   RecordReader in(text, what);
   ItemResult u;
   in.expect("ember-item");
-  in.expect("2");
+  in.expect("3");
   in.expect("rows");
   const long long rows = in.whole();
   for (long long i = 0; i < rows; ++i) {
@@ -87,10 +107,11 @@ ItemResult item_from_text(const std::string& text, const std::string& what) {
   const long long n = in.whole();
   for (long long i = 0; i < n; ++i) u.scan.push_back(read_response(in));
   in.expect("counts");
-  u.counts = {in.real(), in.real(), in.real(), in.real(), in.real()};
+  u.counts = {in.real(), in.real(), in.real(), in.real(), in.real(), in.real(), in.real(), in.real()};
   in.expect("plot");
   const long long p = in.whole();
   for (long long i = 0; i < p; ++i) u.plot_ratio.push_back(in.real());
+  for (long long i = 0; i < p; ++i) u.plot_low_action.push_back(in.flag());
   in.expect("cache");
   const std::string cache = in.word();
   if (cache != "-") u.cache_hit = cache == "1";

@@ -2,7 +2,7 @@
 // table (evaporation), then the pipeline's three stages: the plan (scan rows, Higgs points and
 // their potentials, work items: plan.hpp), its execution (B(M) tables, then chunks of formation
 // masses, on threads or MPI ranks, checkpointed: execute.hpp), and the assembly of the results
-// (assemble.hpp).
+// (assemble.hpp); last the unseeded thermal baseline of the hot universe (population).
 #include "ember/pipeline/job.hpp"
 
 #include <fmt/format.h>
@@ -15,6 +15,7 @@
 #include "ember/evaporation/mass_loss_cache.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/greybody/table_cache.hpp"
+#include "ember/population/thermal_baseline.hpp"
 #include "ember/version.hpp"
 
 namespace ember::pipeline {
@@ -78,6 +79,27 @@ evaporation::MassLoss mass_loss_for(const Scenario& s, const JobOptions& o, JobR
   return std::move(cached.mass_loss);
 }
 
+// The unseeded thermal baseline at the central Higgs point (Standard Model potentials only),
+// from the earliest formation time of any mass the job evaluates.
+std::optional<population::ThermalBaseline> thermal_baseline_of(const detail::JobPlan& plan) {
+  for (std::size_t i = 0; i < plan.points.size(); ++i) {
+    if (!plan.points[i].central || !plan.models[i].sm) continue;
+    double lightest = INFINITY;
+    for (const auto& row : plan.rows) lightest = std::min(lightest, row.mass);
+    for (const double m : plan.grid) lightest = std::min(lightest, m);
+    const double earliest =
+        population::formation_of(lightest, plan.scenario->population.collapse_fraction, *plan.background).time;
+    try {
+      return population::thermal_baseline(*plan.models[i].sm, *plan.background, earliest);
+    } catch (const NumericalError& e) {
+      population::ThermalBaseline failed;
+      failed.note = std::string("not computed: ") + e.what();
+      return failed;
+    }
+  }
+  return std::nullopt;
+}
+
 }  // namespace
 
 JobResults run_job(const Scenario& s, const JobOptions& o) {
@@ -102,6 +124,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   out.assembled = done.assembles;
   if (!out.assembled) return out;  // an MPI rank that only computed
   detail::assemble(plan, done, out);
+  out.thermal_baseline = thermal_baseline_of(plan);
   out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   return out;
 }

@@ -192,6 +192,7 @@ JobPlan make_plan(const Scenario& s, const JobOptions& o, const cosmology::Backg
   plan.context.trajectory = s.evaporation.trajectory;
   plan.context.decay.prefactor = s.tunnelling.prefactor;
   plan.context.decay.grid_points = o.decay_grid_points;
+  plan.context.decay.hot_era = s.tunnelling.hot_era;
   plan.context.collapse_fraction = s.population.collapse_fraction;
   plan.table_options.points = o.table_points;
   plan.table_options.midpoint_stride = o.table_check_stride;

@@ -61,6 +61,7 @@ std::string table_work(const JobPlan& plan, const WorkItem& w) {
       setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
     setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
     setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
+    setup.minimum_action = s.tunnelling.minimum_action;
     const tunnelling::CachedTable cached =
         tunnelling::cached_action_table(p, setup, plan.table_options, plan.options->cache_directory);
     r.state = TableRecord::State::table;
@@ -83,14 +84,23 @@ void drop_unphysical(std::optional<double>& beta, std::optional<double>& f) {
   if (beta && !(*beta < 1)) beta = f = std::nullopt;
 }
 
+// The response context at one Higgs point: its own Standard Model potential sets the plasma's
+// thermal mass (population/plasma.hpp).
+population::ResponseContext context_at(const JobPlan& plan, std::size_t point) {
+  population::ResponseContext c = plan.context;
+  c.standard_model = plan.models[point].sm;
+  return c;
+}
+
 void monochromatic_rows(const JobPlan& plan, const WorkItem& w, const tunnelling::ActionTable& table, std::size_t begin,
                         std::size_t end, ItemResult& u) {
   const bool central = plan.points[w.point].central;
   u.beta_max.assign(end - begin, std::nullopt);
   u.f_max.assign(end - begin, std::nullopt);
+  const population::ResponseContext context = context_at(plan, w.point);
   for (std::size_t r = begin; r < end; ++r) try {
       if (plan.options->before_row) plan.options->before_row(w.point, w.prescription, r);
-      const population::Response resp = population::response_at(plan.rows[r].mass, table, plan.context);
+      const population::Response resp = population::response_at(plan.rows[r].mass, table, context);
       if (resp.lightcone_per_beta > 0) {
         u.beta_max[r - begin] = plan.scenario->exclusion.max_decays / resp.lightcone_per_beta;
         u.f_max[r - begin] = *u.beta_max[r - begin] * resp.f_per_beta;
@@ -124,8 +134,9 @@ std::string chunk_work(const JobPlan& plan, const Tables& tables, const WorkItem
     monochromatic_rows(plan, w, *tables[w.table], begin, end, u);
   } else {
     try {
+      const population::ResponseContext context = context_at(plan, w.point);
       for (std::size_t i = begin; i < end; ++i)
-        u.scan.push_back(population::response_at(plan.grid[i], *tables[w.table], plan.context));
+        u.scan.push_back(population::response_at(plan.grid[i], *tables[w.table], context));
     } catch (const NumericalError& e) {
       u.scan.clear();
       u.failure = one_line(e.what());  // the whole unit fails: every row integrates over the grid
@@ -162,16 +173,18 @@ void central_extras(const JobPlan& plan, const WorkItem& w, const tunnelling::Ac
                     const std::vector<population::Response>& grid, ItemResult& u) {
   const scenario::Scenario& s = *plan.scenario;
   if (plan.options->before_row) plan.options->before_row(w.point, w.prescription, plan.rows.size());
-  const std::vector<population::Response> own = plan.monochromatic()
-                                                    ? std::vector<population::Response>{population::response_at(
-                                                          plan.base->characteristic_mass(), table, plan.context)}
-                                                    : grid;
+  const std::vector<population::Response> own =
+      plan.monochromatic() ? std::vector<population::Response>{population::response_at(
+                                 plan.base->characteristic_mass(), table, context_at(plan, w.point))}
+                           : grid;
   u.counts = population::counts_for(*plan.base, s.population.abundance.measure, s.population.abundance.value, own);
   if (!plan.monochromatic()) u.scan = grid;
   u.table_summary = table.summary().message;
   for (const double m : plan.plot_masses) {
-    const tunnelling::Rates rate = tunnelling::rates_at(table.at(m), *plan.mass_loss, s.tunnelling.prefactor);
+    const tunnelling::ActionPoint a = table.at(m);
+    const tunnelling::Rates rate = tunnelling::rates_at(a, *plan.mass_loss, s.tunnelling.prefactor);
     u.plot_ratio.push_back(rate.evaporation_rate > 0 ? rate.decay_rate / rate.evaporation_rate : 0.0);
+    u.plot_low_action.push_back(a.flags.below_minimum_action);
   }
 }
 

@@ -14,8 +14,15 @@ Response response_at(double mass, const tunnelling::ActionTable& table, const Re
   Response r;
   r.mass = mass;
   r.formation = formation_of(mass, c.collapse_fraction, *c.background);
-  r.decay = decay_along(r.formation, *c.mass_loss, c.trajectory, table, *c.background, c.decay);
+  r.decay = decay_along(r.formation, *c.mass_loss, c.trajectory, table, *c.background, c.decay, c.standard_model);
   r.lightcone_per_beta = lightcone_decays_per_beta(r.formation, r.decay);
+  const Decay& d = r.decay;
+  r.lightcone_per_beta_counted =
+      lightcone_decays_per_beta(r.formation, d.counted.probability, d.counted.lightcone_radius);
+  r.lightcone_per_beta_postponed =
+      lightcone_decays_per_beta(r.formation, d.postponed.probability, d.postponed.lightcone_radius);
+  r.lightcone_per_beta_semiclassical =
+      lightcone_decays_per_beta(r.formation, d.probability_semiclassical, d.lightcone_radius);
   r.hubble_per_beta = hubble_decays_per_beta(r.formation, r.decay, *c.background);
   r.f_per_beta = f_pbh_per_beta(r.formation, *c.background);
   r.count_per_beta = lightcone_count_per_beta(r.formation, *c.background);
@@ -87,6 +94,9 @@ Counts counts_unchecked(const MassFunction& s, AbundanceMeasure measure, double 
     c.lightcone = c.beta * r.lightcone_per_beta;
     c.hubble = c.beta * r.hubble_per_beta;
     c.from_evaporated = r.decay.evaporated ? c.lightcone : 0.0;
+    c.lightcone_counted = c.beta * r.lightcone_per_beta_counted;
+    c.lightcone_postponed = c.beta * r.lightcone_per_beta_postponed;
+    c.lightcone_semiclassical = c.beta * r.lightcone_per_beta_semiclassical;
     return c;
   }
   const Response& mid = nearest(rs, s.characteristic_mass());
@@ -101,6 +111,12 @@ Counts counts_unchecked(const MassFunction& s, AbundanceMeasure measure, double 
   c.from_evaporated = c.f_pbh * integrate(s, rs, [](const Response& r) {
                         return r.decay.evaporated ? r.lightcone_per_beta / r.f_per_beta : 0.0;
                       });
+  c.lightcone_counted =
+      c.f_pbh * integrate(s, rs, [](const Response& r) { return r.lightcone_per_beta_counted / r.f_per_beta; });
+  c.lightcone_postponed =
+      c.f_pbh * integrate(s, rs, [](const Response& r) { return r.lightcone_per_beta_postponed / r.f_per_beta; });
+  c.lightcone_semiclassical =
+      c.f_pbh * integrate(s, rs, [](const Response& r) { return r.lightcone_per_beta_semiclassical / r.f_per_beta; });
   return c;
 }
 

@@ -31,11 +31,64 @@ double qag(const std::function<double(double)>& f, double lo, double hi, double 
   return r;
 }
 
+// What the decay grid records at one ln M: Gamma_D / Gamma_H, the cosmic time, and whether the
+// plasma is cold enough (plasma.hpp) and B at least the minimum action there.
+struct Sample {
+  double u = 0, ratio = 0, time = 0;
+  bool cold = false, semiclassical = true;
+};
+
+// The pieces of [lo, hi] in ln M where keep(u) holds, from `grid` (increasing u), each change
+// refined by bisection to 1e-12 in ln M.
+std::vector<std::pair<double, double>> pieces(const std::vector<Sample>& grid, const std::function<bool(double)>& keep,
+                                              const std::function<bool(const Sample&)>& kept) {
+  std::vector<std::pair<double, double>> out;
+  bool inside = kept(grid.front());
+  double start = grid.front().u;
+  for (std::size_t i = 1; i < grid.size(); ++i) {
+    if (kept(grid[i]) == inside) continue;
+    double a = grid[i - 1].u, b = grid[i].u;  // kept at a is `inside`, at b the opposite
+    for (int k = 0; k < 60 && b - a > 1e-12; ++k) {
+      const double mid = 0.5 * (a + b);
+      (keep(mid) == inside ? a : b) = mid;
+    }
+    if (inside) out.emplace_back(start, 0.5 * (a + b));
+    start = 0.5 * (a + b);
+    inside = !inside;
+  }
+  if (inside) out.emplace_back(start, grid.back().u);
+  return out;
+}
+
+// The mean time of a decay within a step of duration dt and hazard dh at a constant rate, as a
+// fraction of dt: 1/dh - 1/(e^dh - 1), the mean of the exponential truncated to the step (derived);
+// 1/2 - dh/12 for a small hazard. It resolves prompt decays, where 1/Gamma_D is far below a step.
+double mean_offset(double dh) {
+  return dh < 1e-4 ? 0.5 - dh / 12 : 1 / dh - 1 / std::expm1(dh);
+}
+
+// Walks the grid from formation (the last sample) down, accumulating one treatment's decay time.
+struct TimeWeights {
+  double cumulative = 0, weight = 0, weighted_time = 0;
+  void step(double r_early, double r_late, double du, double t_early, double t_late) {
+    const double dh = 0.5 * (r_early + r_late) * du;
+    const double w = std::exp(-cumulative) * -std::expm1(-dh);  // probability of decaying in this step
+    cumulative += dh;
+    weighted_time += w * (t_early + mean_offset(dh) * (t_late - t_early));
+    weight += w;
+  }
+  void finish(Treatment& t, const cosmology::Background& b) const {
+    if (weight <= 0) return;
+    t.decay_time = std::min(weighted_time / weight, b.age());
+    t.lightcone_radius = b.lightcone_radius(t.decay_time);
+  }
+};
+
 }  // namespace
 
 Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
                   const evaporation::TrajectoryOptions& topt, const tunnelling::ActionTable& table,
-                  const cosmology::Background& b, const DecayOptions& o) {
+                  const cosmology::Background& b, const DecayOptions& o, const higgs::StandardModelPotential* sm) {
   Decay d;
   const evaporation::Trajectory tr(ml, formation.mass, topt);
   const double available = b.age() - formation.time;  // time from formation to today
@@ -45,19 +98,43 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
   d.evaporated = tr.lifetime() <= available;
   d.lifetime = tr.lifetime();
   d.end_mass = d.evaporated ? floor : std::max(floor, tr.mass_at_age(available));
-  // Gamma_D / Gamma_H as a function of ln M (the hazard per unit ln M).
-  const auto ratio = [&](double u) {
-    const double m = std::exp(u);
-    const tunnelling::Rates r = tunnelling::rates_at(table.at(m), ml, o.prefactor);
-    return r.evaporation_rate > 0 ? r.decay_rate / r.evaporation_rate : 0.0;
-  };
   const double u_lo = std::log(d.end_mass), u_hi = std::log(formation.mass);
   if (!(u_hi > u_lo)) {  // formed below the floor: outside the semiclassical regime
     d.formed_below_floor = true;
     return d;
   }
-  d.hazard = qag(ratio, u_lo, u_hi, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
-  d.probability = -std::expm1(-d.hazard);
+  const auto sample = [&](double u) {
+    const double m = std::exp(u);
+    const tunnelling::ActionPoint a = table.at(m);
+    const tunnelling::Rates r = tunnelling::rates_at(a, ml, o.prefactor);
+    Sample s{u, r.evaporation_rate > 0 ? r.decay_rate / r.evaporation_rate : 0.0, formation.time + tr.age_at(m)};
+    s.cold = check_plasma(b, sm, s.time, m, a, units::newton_G).cold_enough();
+    s.semiclassical = !a.flags.below_minimum_action;
+    return s;
+  };
+  // Gamma_D / Gamma_H as a function of ln M (the hazard per unit ln M).
+  const auto ratio = [&](double u) {
+    const tunnelling::Rates r = tunnelling::rates_at(table.at(std::exp(u)), ml, o.prefactor);
+    return r.evaporation_rate > 0 ? r.decay_rate / r.evaporation_rate : 0.0;
+  };
+  const int n = o.grid_points;
+  std::vector<Sample> grid;
+  for (int i = 0; i <= n; ++i) grid.push_back(sample(u_lo + (u_hi - u_lo) * i / n));
+
+  const bool postpone = o.hot_era == HotEra::postpone;
+  const auto hazard_where = [&](const std::function<bool(const Sample&)>& kept) {
+    double h = 0;
+    for (const auto& [a, c] : pieces(
+             grid, [&](double u) { return kept(sample(u)); }, kept))
+      h += qag(ratio, a, c, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
+    return h;
+  };
+  d.counted.hazard = qag(ratio, u_lo, u_hi, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
+  d.postponed.hazard = hazard_where([](const Sample& s) { return s.cold; });
+  const double semiclassical = hazard_where([&](const Sample& s) { return s.semiclassical && (s.cold || !postpone); });
+  d.counted.probability = -std::expm1(-d.counted.hazard);
+  d.postponed.probability = -std::expm1(-d.postponed.hazard);
+  d.probability_semiclassical = -std::expm1(-semiclassical);
 
   // The same hazard in time: int Gamma_D dt = int Gamma_D(M(tau)) tau d ln tau, tau the time left.
   const auto in_time = [&](double s) {
@@ -67,46 +144,60 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
   d.hazard_in_time = qag(in_time, std::log(tr.time_left(d.end_mass)), std::log(tr.time_left(formation.mass)),
                          o.relative_tolerance, "decay hazard quadrature (GSL qag, ln time left)");
 
-  // Crossover and the decay time on a grid from the formation mass down.
-  const int n = o.grid_points;
-  double cumulative = 0, weight_sum = 0, weighted_time = 0, previous = ratio(u_hi);
-  if (previous >= 1) {  // decay outruns evaporation from the start
-    d.crossover_mass = formation.mass;
-    d.branching_at_crossover = previous / (1 + previous);
-  }
-  for (int i = 1; i <= n; ++i) {
-    const double u = u_hi + (u_lo - u_hi) * i / n, du = (u_hi - u_lo) / n;
-    const double r = ratio(u);
-    if (!d.crossover_mass && r >= 1 && previous < 1) {
-      double a = u - (u_lo - u_hi) / n, c = u;  // bracket [c, a] in ln M
-      for (int k = 0; k < 60; ++k) {
-        const double mid = 0.5 * (a + c);
-        (ratio(mid) >= 1 ? c : a) = mid;
-      }
-      d.crossover_mass = std::exp(c);
-      const double rc = ratio(c);
-      d.branching_at_crossover = rc / (1 + rc);
+  // Crossover, the first cold moment and the decay times, on the grid from the formation mass down.
+  const auto crossing = [&](std::size_t i) {  // Gamma_D reaches Gamma_H between grid[i] and grid[i + 1]
+    double a = grid[i].u, c = grid[i + 1].u;  // ratio(a) >= 1 > ratio(c)
+    for (int k = 0; k < 60; ++k) {
+      const double mid = 0.5 * (a + c);
+      (ratio(mid) >= 1 ? a : c) = mid;
     }
-    const double dh = 0.5 * (r + previous) * du;
-    const double w = std::exp(-cumulative) * -std::expm1(-dh);  // probability of decaying in this step
-    cumulative += dh;
-    const double m = std::exp(u);
-    weighted_time += w * (formation.time + tr.age_at(m));
-    weight_sum += w;
-    previous = r;
+    d.crossover_mass = std::exp(a);
+    const double rc = ratio(a);
+    d.branching_at_crossover = rc / (1 + rc);
+  };
+  if (grid.back().ratio >= 1) {  // decay outruns evaporation from the start
+    d.crossover_mass = formation.mass;
+    d.branching_at_crossover = grid.back().ratio / (1 + grid.back().ratio);
   }
-  if (weight_sum > 0) {
-    d.decay_time = std::min(weighted_time / weight_sum, b.age());
-    d.lightcone_radius = b.lightcone_radius(d.decay_time);
+  if (grid.back().cold) d.cooled_time = grid.back().time;
+  TimeWeights all, cold;
+  const double du = (u_hi - u_lo) / n;
+  for (std::size_t i = grid.size() - 1; i-- > 0;) {
+    const Sample &early = grid[i + 1], &late = grid[i];
+    if (!d.crossover_mass && late.ratio >= 1 && early.ratio < 1) crossing(i);
+    if (!d.cooled_time && late.cold) {  // the plasma cools between these two: refined by bisection
+      double hot = early.u, cool = late.u;
+      for (int k = 0; k < 60 && hot - cool > 1e-15 * std::abs(hot); ++k) {
+        const double mid = 0.5 * (hot + cool);
+        (sample(mid).cold ? cool : hot) = mid;
+      }
+      d.cooled_time = sample(cool).time;
+    }
+    all.step(early.ratio, late.ratio, du, early.time, late.time);
+    cold.step(early.cold ? early.ratio : 0.0, late.cold ? late.ratio : 0.0, du, early.time, late.time);
   }
+  all.finish(d.counted, b);
+  cold.finish(d.postponed, b);
+
+  const Treatment& chosen = postpone ? d.postponed : d.counted;
+  d.hazard = chosen.hazard;
+  d.probability = chosen.probability;
+  d.decay_time = chosen.decay_time;
+  d.lightcone_radius = chosen.lightcone_radius;
+  if (d.probability > 0) d.plasma_at_decay = plasma_temperature(b, d.decay_time);
+  if (d.crossover_mass) d.plasma_at_crossover = plasma_temperature(b, formation.time + tr.age_at(*d.crossover_mass));
   // Below the floor the semiclassical rate is not trusted: say when it would have mattered.
   if (d.evaporated && d.probability < 0.5) d.decays_below_floor = ratio(std::log(floor)) > 1;
   return d;
 }
 
+double lightcone_decays_per_beta(const Formation& f, double probability, double lightcone_radius) {
+  if (!(probability > 0)) return 0.0;
+  return comoving_number_per_beta(f) * probability * 4 * units::pi / 3 * std::pow(lightcone_radius, 3);
+}
+
 double lightcone_decays_per_beta(const Formation& f, const Decay& d) {
-  if (!(d.probability > 0)) return 0.0;
-  return comoving_number_per_beta(f) * d.probability * 4 * units::pi / 3 * std::pow(d.lightcone_radius, 3);
+  return lightcone_decays_per_beta(f, d.probability, d.lightcone_radius);
 }
 
 double hubble_decays_per_beta(const Formation& f, const Decay& d, const cosmology::Background& b) {

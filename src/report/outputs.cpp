@@ -103,14 +103,28 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
 std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   std::string out =
       csv_header(l, "decay along each mass-loss history",
-                 {"units: masses in g, times in s (since the big bang)",
-                  "P_decay = 1 - exp(-int Gamma_D dt); hazard from the ln M integral, hazard_time from the time "
-                  "integral (a cross-check); crossover = first mass with Gamma_D >= Gamma_H",
+                 {"units: masses in g, times in s (since the big bang), temperatures in GeV",
+                  fmt::format("P_decay = 1 - exp(-int Gamma_D dt) with the hot era {} (tunnelling.hot_era); hazard "
+                              "from the ln M integral; hazard_time the time integral of the whole hazard, hot era "
+                              "counted (a cross-check); crossover = first mass with Gamma_D >= Gamma_H",
+                              l.scenario.tunnelling.hot_era == population::HotEra::postpone
+                                  ? "postponed until the plasma has cooled"
+                                  : "counted as if the exterior were cold"),
+                  "decay_time: the probability-weighted mean time of decay, resolved within each step of the "
+                  "decay grid (prompt decays: 1/Gamma_D after formation)",
+                  "plasma_T_decay, plasma_T_crossover: the plasma's temperature at the decay time and at the crossover",
+                  "hot_era_share: the share of P_decay (hot era counted) that falls while the plasma is too hot for a "
+                  "cold-exterior rate (hotter than the hole, or its thermal mass holds the bubble's field)",
+                  fmt::format("low_action_share: the share of P_decay from points with B below minimum_action = {} "
+                              "(no semiclassical meaning there)",
+                              format_real(l.scenario.tunnelling.minimum_action)),
                   "empty cell: none (no crossover, or no decay)"});
   out += "formation_mass_g,formation_time_s,lifetime_s,evaporated,formed_below_floor";
   for (const auto& o : r.outcomes)
-    out += fmt::format(",P_decay_{0},hazard_{0},hazard_time_{0},crossover_mass_g_{0},decay_time_s_{0}",
-                       tunnelling::name_of(o.prescription));
+    out += fmt::format(
+        ",P_decay_{0},hazard_{0},hazard_time_{0},crossover_mass_g_{0},decay_time_s_{0},plasma_T_decay_GeV_{0},"
+        "plasma_T_crossover_GeV_{0},hot_era_share_{0},low_action_share_{0}",
+        tunnelling::name_of(o.prescription));
   out += "\n";
   const std::size_t rows = r.outcomes.empty() ? 0 : r.outcomes.front().scan.size();
   for (std::size_t i = 0; i < rows; ++i) {
@@ -120,13 +134,20 @@ std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResu
                        first.decay.formed_below_floor ? "true" : "false");
     for (const auto& o : r.outcomes) {
       if (i >= o.scan.size()) {
-        out += ",,,,,";
+        out += ",,,,,,,,,";
         continue;
       }
       const auto& d = o.scan[i].decay;
+      const auto share = [](double part, double whole) {
+        return whole > 0 ? std::optional<double>(std::clamp(1 - part / whole, 0.0, 1.0)) : std::nullopt;
+      };
       out += fmt::format(",{:.8e},{},{},{},{}", d.probability, cell(d.hazard), cell(d.hazard_in_time),
                          cell(d.crossover_mass ? std::optional<double>(*d.crossover_mass / u::gram) : std::nullopt),
                          d.probability > 0 ? cell(d.decay_time / u::second) : std::string());
+      out += fmt::format(",{},{},{},{}", d.probability > 0 ? cell(d.plasma_at_decay) : std::string(),
+                         d.crossover_mass ? cell(d.plasma_at_crossover) : std::string(),
+                         cell(share(d.postponed.probability, d.counted.probability)),
+                         cell(share(d.probability_semiclassical, d.probability)));
     }
     out += "\n";
   }
@@ -135,13 +156,18 @@ std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResu
 
 std::string rates_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   std::string out = csv_header(l, "decay against evaporation",
-                               {"units: seed mass in g and Planck masses; ratio = Gamma_D / Gamma_H"});
+                               {"units: seed mass in g and Planck masses; ratio = Gamma_D / Gamma_H (the branching "
+                                "ratio of decay is ratio / (1 + ratio))",
+                                fmt::format("below_minimum_action = 1: B < {} there (no semiclassical meaning)",
+                                            format_real(l.scenario.tunnelling.minimum_action))});
   out += "seed_mass_g,seed_mass_Mpl";
   for (const auto& o : r.outcomes) out += fmt::format(",ratio_{}", tunnelling::name_of(o.prescription));
+  for (const auto& o : r.outcomes) out += fmt::format(",below_minimum_action_{}", tunnelling::name_of(o.prescription));
   out += "\n";
   for (std::size_t i = 0; i < r.plot_masses.size(); ++i) {
     out += fmt::format("{:.8e},{:.8e}", r.plot_masses[i] / u::gram, r.plot_masses[i] / u::planck_mass);
     for (const auto& o : r.outcomes) out += "," + (i < o.plot_ratio.size() ? cell(o.plot_ratio[i]) : std::string());
+    for (const auto& o : r.outcomes) out += i < o.plot_low_action.size() ? (o.plot_low_action[i] ? ",1" : ",0") : ",";
     out += "\n";
   }
   return out;
@@ -171,8 +197,27 @@ std::vector<std::string> cautions(const scenario::Scenario& s) {
           "Seeds below the semiclassical floor of {:.3g} Planck masses ({:.3g} g) are outside the validity of these "
           "results and are not counted.",
           s.tunnelling.semiclassical_floor / u::planck_mass, s.tunnelling.semiclassical_floor / u::gram),
+      fmt::format("Every prescription assumes a cold exterior: decays while the plasma is hotter than the hole, or "
+                  "while its thermal mass holds the bubble's field in the false vacuum, are {} (tunnelling.hot_era); "
+                  "summary.json gives N both ways.",
+                  s.tunnelling.hot_era == population::HotEra::postpone ? "not counted until the plasma has cooled"
+                                                                       : "counted as if it were cold, and flagged"),
+      fmt::format("Points with B below {} have no semiclassical meaning (e^-B is no suppression); summary.json "
+                  "gives the share of N that rests on them.",
+                  format_real(s.tunnelling.minimum_action)),
       "The constraint disappears if new physics stabilises the Higgs potential."};
 }
+
+namespace {
+
+double share_resting_on(double part_without, double whole) {
+  return whole > 0 ? std::clamp(1 - part_without / whole, 0.0, 1.0) : 0.0;
+}
+
+// The thermal baseline is worth a caution once it is no longer far below one decay.
+constexpr double thermal_caution_log10 = -3;
+
+}  // namespace
 
 ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   ordered_json j;
@@ -194,6 +239,17 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
     j["unseeded_baseline"] = {
         {"log10_expected_decays", number_or_null(st.log10_expected_decays)},
         {"note", "flat-space decay of our past light cone with no black holes: " + st.prescription}};
+    if (r.thermal_baseline) {
+      j["unseeded_baseline"]["log10_expected_decays_thermal"] =
+          number_or_null(r.thermal_baseline->log10_expected_decays);
+      j["unseeded_baseline"]["thermal_note"] = r.thermal_baseline->note;
+      if (r.thermal_baseline->log10_expected_decays &&
+          *r.thermal_baseline->log10_expected_decays > thermal_caution_log10)
+        j["cautions"].push_back(fmt::format(
+            "The unseeded thermal decay of the hot universe is not negligible (log10 N = {:.1f}): the plasma itself "
+            "may have decayed, black holes or not.",
+            *r.thermal_baseline->log10_expected_decays));
+    }
   }
   j["no_constraint"] = r.no_constraint;
   if (r.no_constraint) j["no_constraint_reason"] = r.no_constraint_reason;
@@ -207,6 +263,11 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
         {"excluded", o.excluded},
         {"abundance", {{"beta", o.counts.beta}, {"f_pbh", o.counts.f_pbh}}},
         {"share_from_evaporated_holes", evaporated_share},
+        {"hot_era",
+         {{"treatment", population::name_of(l.scenario.tunnelling.hot_era)},
+          {"N_lightcone_postponed", o.counts.lightcone_postponed},
+          {"N_lightcone_counted", o.counts.lightcone_counted}}},
+        {"share_of_N_below_minimum_action", share_resting_on(o.counts.lightcone_semiclassical, o.counts.lightcone)},
         {"assumptions", tunnelling::assumptions(o.prescription)},
         {"table", o.table_summary},
         {"failure", o.failure.empty() ? ordered_json(nullptr) : ordered_json(o.failure)}};
@@ -266,6 +327,12 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
         "  warning: with no black holes at all the vacuum would already have decayed in our past light cone "
         "(log10 N = {:.1f}): these Standard Model inputs are excluded on their own, whatever the population\n",
         *r.stability->log10_expected_decays);
+  if (r.thermal_baseline && r.thermal_baseline->log10_expected_decays) {
+    const double n = *r.thermal_baseline->log10_expected_decays;
+    t += fmt::format("  unseeded thermal decay of the hot universe (from {:.3g} GeV): log10 N = {:.1f}{}\n",
+                     r.thermal_baseline->highest_temperature, n,
+                     n > thermal_caution_log10 ? "  caution: not negligible; the plasma itself may decay" : "");
+  }
   if (r.no_constraint) t += fmt::format("  no constraint: {}\n", r.no_constraint_reason);
   t += fmt::format("  {:<14} {:>14} {:>16}  {}\n", "prescription", "N_lightcone", "survival e^-N", "verdict");
   for (const auto& o : r.outcomes)
@@ -274,6 +341,18 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
                      !o.failure.empty() ? "FAILED"
                      : o.excluded       ? "EXCLUDED"
                                         : "allowed");
+  const bool postpone = l.scenario.tunnelling.hot_era == population::HotEra::postpone;
+  t += fmt::format("  hot era ({}): N with the hot era {}:", postpone ? "postponed" : "counted",
+                   postpone ? "counted instead" : "postponed instead");
+  for (const auto& o : r.outcomes)
+    t += fmt::format(" {} {:.4e};", tunnelling::name_of(o.prescription),
+                     postpone ? o.counts.lightcone_counted : o.counts.lightcone_postponed);
+  t += "\n";
+  t += fmt::format("  share of N from points with B < {}:", format_real(l.scenario.tunnelling.minimum_action));
+  for (const auto& o : r.outcomes)
+    t += fmt::format(" {} {:.3g}%;", tunnelling::name_of(o.prescription),
+                     100 * share_resting_on(o.counts.lightcone_semiclassical, o.counts.lightcone));
+  t += "\n";
   if (!r.failures.empty())
     t += fmt::format("  failed points: {} (in summary.json failed_points; the rest of the scan went on); first: {}\n",
                      r.failures.size(), r.failures.front().reason);

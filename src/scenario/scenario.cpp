@@ -68,6 +68,8 @@ TunnellingChoices read_tunnelling(const YAML::Node& n) {
   t.prefactor = n["prefactor"].Scalar() == "light_crossing" ? Prefactor::light_crossing : Prefactor::root_action;
   t.semiclassical_floor = mass(n["semiclassical_floor"]);
   t.hot_bubble_volume = num(n["hot_bubble_volume"]);
+  t.minimum_action = num(n["minimum_action"]);
+  t.hot_era = n["hot_era"].Scalar() == "count" ? population::HotEra::count : population::HotEra::postpone;
   const YAML::Node wall = n["thin_wall"];
   if (wall["tension"]) t.wall_tension = qty(wall["tension"], {units::Dimension::energy, 3});
   if (wall["energy_gap"]) t.energy_gap = qty(wall["energy_gap"], {units::Dimension::energy, 4});

@@ -179,6 +179,15 @@ Key tunnelling() {
                 units::mass, "Mpl", in_planck_masses(tunnelling::TunnellingSetup{}.semiclassical_floor), at_least(1)),
        number("hot_bubble_volume", "hot_bubble: nucleation volume in units of the horizon volume 4 pi r_h^3 / 3", "1",
               above(0)),
+       number("minimum_action",
+              "B below this is flagged: e^-B is then no suppression and the semiclassical rate has no meaning; the "
+              "summary says how much of N rests on such points (common practice: of order 1 to a few)",
+              format_real(tunnelling::TunnellingSetup{}.minimum_action), above(0)),
+       option("hot_era",
+              "decays while the plasma is hotter than the hole, or its thermal mass holds the bubble's field in the "
+              "false vacuum: postpone = not counted until the plasma has cooled; count = counted as if the exterior "
+              "were cold, and flagged (summary.json gives N both ways)",
+              {"postpone", "count"}, population::name_of(population::DecayOptions{}.hot_era)),
        section("thin_wall", "thin_wall: the wall of a user's thin-wall potential",
                {with_example(quantity("tension", "wall tension sigma", {units::Dimension::energy, 3}, "GeV^3",
                                       std::nullopt, above(0)),

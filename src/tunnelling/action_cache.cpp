@@ -15,9 +15,9 @@ namespace ember::tunnelling {
 std::string action_table_key(Prescription p, const TunnellingSetup& s, const ActionTableOptions& o) {
   std::string text = fmt::format(
       "ember {} numerics {}\nprescription {}\npoints {} stop {:a} max_seed {:a} stride {}\nG {:a} floor {:a} "
-      "hot_volume {:a} standard_model {}\npotential {}\n",
+      "hot_volume {:a} minimum_action {:a} standard_model {}\npotential {}\n",
       version, embedded::numerics_fingerprint(), name_of(p), o.points, o.stop_action, o.max_seed, o.midpoint_stride,
-      s.newton_G, s.semiclassical_floor, s.hot_bubble_volume, s.standard_model ? 1 : 0,
+      s.newton_G, s.semiclassical_floor, s.hot_bubble_volume, s.minimum_action, s.standard_model ? 1 : 0,
       s.potential ? s.potential->identity() : std::string("none"));
   if (s.thin_wall) text += fmt::format("thin_wall {:a} {:a}\n", s.thin_wall->sigma, s.thin_wall->epsilon);
   return fmt::format("btable-{}-{}.txt", name_of(p), fingerprint(text));

@@ -80,6 +80,7 @@ ActionTable::ActionTable(Prescription p, const TunnellingSetup& s, const ActionT
   o.validate();
   const auto start = std::chrono::steady_clock::now();
   floor_ = s.semiclassical_floor;
+  minimum_action_ = s.minimum_action;
   // Coarse decade search for the top: the first decade where B passes stop_action.
   top_ = o.max_seed;
   for (double m = floor_ * 10; m < o.max_seed; m *= 10) {
@@ -195,6 +196,8 @@ ActionPoint ActionTable::at(double seed) const {
     a.flags.beyond_table = true;
   }
   if (!a.flags.no_decay) a.action.error += summary_.interpolation_error * std::max(a.action.value, 1.0);
+  // From the interpolated B, not the nearer node's flag.
+  a.flags.below_minimum_action = !a.flags.no_decay && a.action.value < minimum_action_;
   return a;
 }
 
@@ -216,7 +219,7 @@ unsigned flag_bits(const Flags& f) {
   return (f.below_floor ? 1u : 0u) | (f.fallback ? 2u : 0u) | (f.resolution_limit ? 4u : 0u) |
          (f.several_branches ? 8u : 0u) | (f.near_branch_point ? 16u : 0u) | (f.outside_running ? 32u : 0u) |
          (f.no_decay ? 64u : 0u) | (f.beyond_table ? 128u : 0u) | (f.unconverged ? 256u : 0u) |
-         (f.remnant_free_regime ? 512u : 0u);
+         (f.remnant_free_regime ? 512u : 0u) | (f.below_minimum_action ? 1024u : 0u);
 }
 
 Flags flags_of(unsigned b) {
@@ -231,6 +234,7 @@ Flags flags_of(unsigned b) {
   f.beyond_table = b & 128u;
   f.unconverged = b & 256u;
   f.remnant_free_regime = b & 512u;
+  f.below_minimum_action = b & 1024u;
   return f;
 }
 
@@ -238,9 +242,10 @@ Flags flags_of(unsigned b) {
 
 std::string ActionTable::to_text() const {
   std::string out = fmt::format(
-      "ember-action-table 1\nprescription {}\nfloor {}\ntop {}\ninterpolation_error {}\nchecks {}\nnodes {}\n",
-      name_of(prescription_), hex(floor_), hex(top_), hex(summary_.interpolation_error), summary_.checks,
-      nodes_.size());
+      "ember-action-table 2\nprescription {}\nfloor {}\nminimum_action {}\ntop {}\ninterpolation_error {}\nchecks "
+      "{}\nnodes {}\n",
+      name_of(prescription_), hex(floor_), hex(minimum_action_), hex(top_), hex(summary_.interpolation_error),
+      summary_.checks, nodes_.size());
   for (const auto& n : nodes_)
     out += fmt::format("{} {} {} {} {} {} {} {}\n", hex(n.seed_mass), hex(n.action.value), hex(n.action.error),
                        hex(n.remnant_mass), hex(n.phi_horizon), n.own_prefactor ? 1 : 0,
@@ -253,8 +258,8 @@ ActionTable ActionTable::from_text(const std::string& text) {
   std::string word, value;
   int version = 0;
   in >> word >> version;
-  if (word != "ember-action-table" || version != 1)
-    throw InputError("B(M) table text: not an ember-action-table version 1; expected the format to_text writes");
+  if (word != "ember-action-table" || version != 2)
+    throw InputError("B(M) table text: not an ember-action-table version 2; expected the format to_text writes");
   ActionTable t;
   const auto field = [&](const char* name) {
     in >> word >> value;
@@ -265,6 +270,7 @@ ActionTable ActionTable::from_text(const std::string& text) {
   if (!p) throw InputError("B(M) table text: unknown prescription");
   t.prescription_ = *p;
   t.floor_ = unhex(field("floor"));
+  t.minimum_action_ = unhex(field("minimum_action"));
   t.top_ = unhex(field("top"));
   t.summary_.interpolation_error = unhex(field("interpolation_error"));
   t.summary_.checks = std::stoi(field("checks"));

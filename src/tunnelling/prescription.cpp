@@ -67,6 +67,7 @@ std::vector<std::string> Flags::list() const {
   if (beyond_table) out.emplace_back("beyond_table");
   if (unconverged) out.emplace_back("unconverged");
   if (remnant_free_regime) out.emplace_back("remnant_free_regime");
+  if (below_minimum_action) out.emplace_back("below_minimum_action");
   return out;
 }
 
@@ -81,6 +82,7 @@ Flags& Flags::operator|=(const Flags& o) {
   beyond_table |= o.beyond_table;
   unconverged |= o.unconverged;
   remnant_free_regime |= o.remnant_free_regime;
+  below_minimum_action |= o.below_minimum_action;
   return *this;
 }
 
@@ -350,6 +352,7 @@ ActionPoint action_at(Prescription p, const TunnellingSetup& s, double seed, con
     case Prescription::thin_wall: a = thin_wall(s, seed); break;
   }
   a.flags.below_floor = seed < s.semiclassical_floor;
+  a.flags.below_minimum_action = !a.flags.no_decay && a.action.value < s.minimum_action;
   // Module boundary (no NaN leaves a module): B and the remnant leave the tunnelling module finite.
   const auto inputs = [&] {
     return fmt::format("{} at seed mass {:.6e} M_Pl ({})", name_of(p), seed / units::planck_mass,

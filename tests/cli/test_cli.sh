@@ -174,7 +174,7 @@ run "bounce text" 0 -- "$ember" bounce --seed-mass "3e6 Mpl" --prescriptions pro
 stdout_has "bounce text" "probe_field"
 stdout_has "bounce text" "semiclassical"
 run "bounce scan" 0 -- "$ember" bounce --scan "1e3 Mpl" "1e7 Mpl" 5 --prescriptions probe_field --output "$work/scan.csv"
-grep -q '^seed_mass_Mpl,seed_mass_g,B_probe_field,branching_probe_field,flags_probe_field$' "$work/scan.csv" || fail "bounce --scan: no column line"
+grep -q '^seed_mass_Mpl,seed_mass_g,B_probe_field,branching_probe_field,ratio_probe_field,flags_probe_field$' "$work/scan.csv" || fail "bounce --scan: no column line"
 [[ $(grep -vc '^#' "$work/scan.csv") == 6 ]] || fail "bounce --scan: expected 5 rows and the column line"
 grep -qiE 'nan|inf' "$work/scan.csv" && fail "bounce --scan: NaN or inf in the CSV"
 run "bounce scan json" 0 -- "$ember" bounce --scan "1e3 Mpl" "1e7 Mpl" 3 --prescriptions probe_field,no_seed --json

@@ -21,6 +21,7 @@ struct ItemResult {
   population::Counts counts;                           // central point only
   std::string table_summary;                           // central point only
   std::vector<double> plot_ratio;                      // Gamma_D / Gamma_H at the plot masses (central)
+  std::vector<bool> plot_low_action;                   // B below the minimum action there
   std::optional<bool> cache_hit;                       // set when a B(M) table was needed
   std::string failure;                                 // a solver failed for the whole unit: why
   std::vector<std::string> row_failures;               // per scan row: why it failed; empty: it did not

@@ -16,6 +16,7 @@
 #include "ember/pipeline/checkpoint.hpp"
 #include "ember/pipeline/executor.hpp"
 #include "ember/population/counts.hpp"
+#include "ember/population/thermal_baseline.hpp"
 #include "ember/scenario/scenario.hpp"
 
 namespace ember::pipeline {
@@ -78,8 +79,9 @@ struct PrescriptionOutcome {
   std::vector<CurveRow> curve;
   std::vector<population::Response> scan;  // monochromatic responses at the scan masses (decay.csv)
   std::string table_summary;
-  std::vector<double> plot_ratio;  // Gamma_D / Gamma_H at JobResults::plot_masses
-  std::string failure;             // a solver failed for the central point: why (counts and verdict then void)
+  std::vector<double> plot_ratio;     // Gamma_D / Gamma_H at JobResults::plot_masses
+  std::vector<bool> plot_low_action;  // B below tunnelling.minimum_action there
+  std::string failure;                // a solver failed for the central point: why (counts and verdict then void)
 };
 
 struct BandPoint {
@@ -99,12 +101,13 @@ struct FailedPoint {
 };
 
 struct JobResults {
-  std::string potential;                            // description
-  std::optional<higgs::StabilityReport> stability;  // Standard Model potentials
-  std::string spectrum;                             // description
-  std::string greybody;                             // which greybody table, and its stated error
-  std::optional<bool> greybody_from_cache;          // a computed table: read from the cache or built
-  bool no_constraint = false;                       // stable potential or no bubble: no seeded decay at all
+  std::string potential;                                        // description
+  std::optional<higgs::StabilityReport> stability;              // Standard Model potentials
+  std::optional<population::ThermalBaseline> thermal_baseline;  // the hot universe's own decay (SM potentials)
+  std::string spectrum;                                         // description
+  std::string greybody;                                         // which greybody table, and its stated error
+  std::optional<bool> greybody_from_cache;                      // a computed table: read from the cache or built
+  bool no_constraint = false;                                   // stable potential or no bubble: no seeded decay at all
   std::string no_constraint_reason;
   std::vector<PrescriptionOutcome> outcomes;
   std::vector<BandPoint> band;                                   // every Higgs point, central first

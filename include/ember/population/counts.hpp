@@ -28,6 +28,9 @@ struct Response {
   double hubble_per_beta = 0;     // per Hubble volume at the decay, per unit beta
   double f_per_beta = 0;
   double count_per_beta = 0;  // holes formed inside our past light cone per unit beta
+  // lightcone_per_beta under each treatment of the hot era (decay.hpp), and (chosen treatment)
+  // from the points with B >= minimum_action only (at the chosen decay time's light cone).
+  double lightcone_per_beta_counted = 0, lightcone_per_beta_postponed = 0, lightcone_per_beta_semiclassical = 0;
 };
 
 struct ResponseContext {
@@ -36,6 +39,9 @@ struct ResponseContext {
   evaporation::TrajectoryOptions trajectory;
   DecayOptions decay;
   double collapse_fraction = 0.2;
+  // The Standard Model potential, when it is the one in use: the plasma's thermal mass
+  // (plasma.hpp, rule (b)); null otherwise.
+  const higgs::StandardModelPotential* standard_model = nullptr;
 };
 
 Response response_at(double mass, const tunnelling::ActionTable& table, const ResponseContext& c);
@@ -54,6 +60,8 @@ struct Counts {
   double f_pbh = 0;            // the abundance as f_PBH
   double beta = 0;             // the abundance as beta (at the characteristic mass for extended spectra)
   double from_evaporated = 0;  // the part of N from holes that are gone by today
+  // N under each treatment of the hot era, and (chosen treatment) from points with B >= minimum_action.
+  double lightcone_counted = 0, lightcone_postponed = 0, lightcone_semiclassical = 0;
 };
 
 // Counts for a spectrum with its abundance; the responses must cover the spectrum's support

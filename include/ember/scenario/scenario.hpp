@@ -86,6 +86,8 @@ struct TunnellingChoices {
   Prefactor prefactor;
   double semiclassical_floor;          // GeV
   double hot_bubble_volume;            // in units of 4 pi r_h^3 / 3
+  double minimum_action;               // B below this is flagged (tunnelling::TunnellingSetup)
+  population::HotEra hot_era;          // decays while the plasma is too hot: postponed or counted
   std::optional<double> wall_tension;  // GeV^3
   std::optional<double> energy_gap;    // GeV^4
 };

@@ -62,6 +62,7 @@ class ActionTable {
   void set_message();
   Prescription prescription_;
   double floor_ = 0, top_ = 0;
+  double minimum_action_ = 1;  // TunnellingSetup::minimum_action, for the flag on looked-up points
   std::vector<ActionPoint> nodes_;
   std::vector<std::shared_ptr<const Branch>> branches_;
   ActionTableSummary summary_;

@@ -67,6 +67,9 @@ struct Flags {
   // remnant-free, Euclidean-time-dependent instantons that take over are not computed;
   // the fallback B = 4 pi G M^2 stands in for them.
   bool remnant_free_regime = false;
+  // B below the setup's minimum_action: e^{-B} is then no suppression at all, and the
+  // semiclassical expansion that gives the rate has no meaning there.
+  bool below_minimum_action = false;
   std::vector<std::string> list() const;
   Flags& operator|=(const Flags& o);
 };
@@ -87,6 +90,9 @@ struct TunnellingSetup {
   std::optional<ThinWall> thin_wall;                              // for thin_wall
   double newton_G = units::newton_G;
   double semiclassical_floor = 1e3 * units::planck_mass;
+  // The smallest B whose e^{-B} is read as a semiclassical rate; below it points are flagged
+  // (common practice: of order 1 to a few).
+  double minimum_action = 1;
   double hot_bubble_volume = 1;  // in units of 4 pi r_h^3 / 3
 };
 
