@@ -5,6 +5,7 @@
 
 #include "ember/core/errors.hpp"
 #include "ember/population/counts.hpp"
+#include "ember/population/thermal_baseline.hpp"
 #include "ember/units/constants.hpp"
 #include "support.hpp"
 
@@ -199,4 +200,26 @@ TEST_CASE("a prompt decay happens 1/Gamma_D after formation, not a grid step lat
   const population::Response held = population::response_at(gram(1), probe_table(), c);
   CHECK(held.decay.postponed.probability < 1e-3);
   CHECK(held.decay.counted.probability == doctest::Approx(1));
+}
+
+TEST_CASE("the unseeded thermal baseline: hotter starts decay more, a stable vacuum not at all") {
+  // The O(3) thermal rate per volume T^4 (S3/2piT)^(3/2) e^(-S3/T) (Arnold & Vokos, PRD 44 (1991)
+  // 3620, from memory) grows with T here: S3/T ~ 18.9 m_T / (T |lambda|) (test_tunnelling's O(3)
+  // check) falls as |lambda_eff| grows toward 1e17 GeV, and T^4 grows. So starting at an earlier,
+  // hotter time only adds decays; and Espinosa, Giudice & Riotto (JCAP 05 (2008) 002, from
+  // memory) find the Standard Model's thermal decay negligible for these inputs (N far below 1).
+  const double early = population::formation_of(gram(1e-3), 0.2, background()).time;
+  const double late = population::formation_of(gram(1e3), 0.2, background()).time;
+  const population::ThermalBaseline hot = population::thermal_baseline(standard_model(), background(), early);
+  const population::ThermalBaseline cooler = population::thermal_baseline(standard_model(), background(), late);
+  REQUIRE(hot.log10_expected_decays);
+  REQUIRE(cooler.log10_expected_decays);
+  CHECK(*hot.log10_expected_decays > *cooler.log10_expected_decays);
+  CHECK(*hot.log10_expected_decays < -10);
+  CHECK(hot.highest_temperature > cooler.highest_temperature);
+  // M_t = 168 GeV: below the critical top mass, lambda stays positive; no thermal bubble.
+  higgs::Inputs stable = higgs::default_inputs();
+  stable.top_mass = 168;
+  const higgs::StandardModelPotential sm(std::make_shared<const higgs::Running>(stable));
+  CHECK_FALSE(population::thermal_baseline(sm, background(), early).log10_expected_decays);
 }

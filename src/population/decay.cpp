@@ -122,14 +122,16 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
   for (int i = 0; i <= n; ++i) grid.push_back(sample(u_lo + (u_hi - u_lo) * i / n));
 
   const bool postpone = o.hot_era == HotEra::postpone;
+  d.counted.hazard = qag(ratio, u_lo, u_hi, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
   const auto hazard_where = [&](const std::function<bool(const Sample&)>& kept) {
+    const auto parts = pieces(
+        grid, [&](double u) { return kept(sample(u)); }, kept);
+    if (parts.size() == 1 && parts[0] == std::pair{u_lo, u_hi}) return d.counted.hazard;  // kept throughout
     double h = 0;
-    for (const auto& [a, c] : pieces(
-             grid, [&](double u) { return kept(sample(u)); }, kept))
+    for (const auto& [a, c] : parts)
       h += qag(ratio, a, c, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
     return h;
   };
-  d.counted.hazard = qag(ratio, u_lo, u_hi, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
   d.postponed.hazard = hazard_where([](const Sample& s) { return s.cold; });
   const double semiclassical = hazard_where([&](const Sample& s) { return s.semiclassical && (s.cold || !postpone); });
   d.counted.probability = -std::expm1(-d.counted.hazard);

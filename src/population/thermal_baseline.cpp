@@ -51,6 +51,7 @@ ThermalBaseline thermal_baseline(const higgs::StandardModelPotential& sm, const 
   ThermalBaseline out;
   out.highest_temperature = plasma_temperature(b, earliest);
   const double lowest = std::min(o.lowest_temperature, out.highest_temperature);
+  out.lowest_temperature = lowest;
   const int n =
       std::max(2, static_cast<int>(std::ceil(std::log10(out.highest_temperature / lowest) * o.points_per_decade)) + 1);
   std::vector<double> log_f(static_cast<std::size_t>(n), -INFINITY), ln_t(static_cast<std::size_t>(n));
@@ -69,6 +70,14 @@ ThermalBaseline thermal_baseline(const higgs::StandardModelPotential& sm, const 
       }
     }
     ln_t[I] = std::log(time);
+    // Colder plasma only decays less (S3/T grows as T falls): once the integrand is 1e-100 of its
+    // largest value the rest of the way adds nothing a double can hold.
+    if (log_f[I] < largest - 100 * std::log(10.0)) {
+      log_f.resize(I + 1);
+      ln_t.resize(I + 1);
+      out.lowest_temperature = temperature;
+      break;
+    }
   }
   if (out.bubbles == 0) {
     out.note = "no thermal bubble between these temperatures: the thermal mass lifts the potential everywhere";
@@ -82,7 +91,7 @@ ThermalBaseline thermal_baseline(const higgs::StandardModelPotential& sm, const 
   out.note = fmt::format(
       "flat-space O(3) thermal decay of the plasma, T = {:.3g} GeV down to {:.3g} GeV ({} of {} temperatures with a "
       "bubble; largest rate at {:.3g} GeV)",
-      out.highest_temperature, lowest, out.bubbles, n, out.peak_temperature);
+      out.highest_temperature, out.lowest_temperature, out.bubbles, log_f.size(), out.peak_temperature);
   return out;
 }
 

@@ -13,7 +13,8 @@
 // chi(t) the comoving distance light travels from t to today (cosmology::Background), integrated
 // by the trapezoidal rule in ln t on a grid log-spaced in T, in logarithms (the terms are far
 // below the smallest double). Temperatures where the thermal mass lifts the potential
-// everywhere (no bubble) contribute nothing. The leading high-T mass is used throughout; where
+// everywhere (no bubble) contribute nothing, and the walk down in T stops once the integrand is
+// 1e-100 of its largest value. The leading high-T mass is used throughout; where
 // the bubble's field exceeds T it overstates the lift, and so understates N.
 #pragma once
 
@@ -34,6 +35,7 @@ struct ThermalBaselineOptions {
 struct ThermalBaseline {
   std::optional<double> log10_expected_decays;  // none: no thermal bubble anywhere on the way
   double highest_temperature = 0;               // GeV, the plasma at the earliest formation time
+  double lowest_temperature = 0;                // GeV, where the integration stopped
   double peak_temperature = 0;                  // GeV, where the integrand is largest
   int bubbles = 0;                              // grid temperatures with a thermal bubble
   std::string note;
