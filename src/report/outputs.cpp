@@ -15,6 +15,7 @@
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
 #include "ember/version.hpp"
+#include "verdict.hpp"
 
 namespace ember::report {
 
@@ -225,6 +226,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["scenario_file"] = l.source;
   j["scenario_hash"] = scenario::scenario_hash(l);
   j["title"] = l.scenario.title;
+  j["prescriptions"] = nullptr;  // filled below; the verdict leads the file
   j["scenario"] = scenario::resolved_json(l.resolved);
   j["cautions"] = cautions(l.scenario);
   j["potential"] = r.potential;
@@ -256,8 +258,9 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   ordered_json ps = ordered_json::object();
   for (const auto& o : r.outcomes) {
     const double evaporated_share = o.counts.lightcone > 0 ? o.counts.from_evaporated / o.counts.lightcone : 0.0;
-    ps[tunnelling::name_of(o.prescription)] = {
-        {"N_lightcone", o.counts.lightcone},
+    ordered_json p = {{"N_lightcone", o.counts.lightcone}};
+    p.update(detail::verdict_json(o, l.scenario.exclusion.max_decays));
+    p.update(ordered_json{
         {"N_hubble", o.counts.hubble},
         {"survival_probability", o.survival},
         {"excluded", o.excluded},
@@ -270,15 +273,21 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
         {"share_of_N_below_minimum_action", share_resting_on(o.counts.lightcone_semiclassical, o.counts.lightcone)},
         {"assumptions", tunnelling::assumptions(o.prescription)},
         {"table", o.table_summary},
-        {"failure", o.failure.empty() ? ordered_json(nullptr) : ordered_json(o.failure)}};
+        {"failure", o.failure.empty() ? ordered_json(nullptr) : ordered_json(o.failure)}});
+    ps[tunnelling::name_of(o.prescription)] = std::move(p);
   }
   j["prescriptions"] = ps;
   const Tightest t = tightest(r);
-  j["most_constraining"] = t.found ? ordered_json{{"prescription", t.prescription},
-                                                  {"mass_g", t.mass / u::gram},
-                                                  {"beta_max", t.beta},
-                                                  {"f_max", t.f}}
-                                   : ordered_json(nullptr);
+  j["tightest_scan_bound"] =
+      t.found ? ordered_json{{"prescription", t.prescription},
+                             {"mass_g", t.mass / u::gram},
+                             {"beta_max", t.beta},
+                             {"f_max", t.f},
+                             {"meaning",
+                              "the lowest beta_max over the scan rows of constraint.csv, each row the scenario's "
+                              "spectrum shape moved to that mass (monochromatic: a population at that mass); not the "
+                              "scenario's own verdict, which is under prescriptions"}}
+              : ordered_json(nullptr);
   ordered_json band = ordered_json::array();
   for (const auto& b : r.band)
     band.push_back({{"label", b.point.label},
@@ -334,13 +343,7 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
                      n > thermal_caution_log10 ? "  caution: not negligible; the plasma itself may decay" : "");
   }
   if (r.no_constraint) t += fmt::format("  no constraint: {}\n", r.no_constraint_reason);
-  t += fmt::format("  {:<14} {:>14} {:>16}  {}\n", "prescription", "N_lightcone", "survival e^-N", "verdict");
-  for (const auto& o : r.outcomes)
-    t += fmt::format("  {:<14} {:>14.4e} {:>16.4e}  {}\n", tunnelling::name_of(o.prescription), o.counts.lightcone,
-                     o.survival,
-                     !o.failure.empty() ? "FAILED"
-                     : o.excluded       ? "EXCLUDED"
-                                        : "allowed");
+  t += detail::verdict_text(r, l.scenario.exclusion.max_decays);
   const bool postpone = l.scenario.tunnelling.hot_era == population::HotEra::postpone;
   t += fmt::format("  hot era ({}): N with the hot era {}:", postpone ? "postponed" : "counted",
                    postpone ? "counted instead" : "postponed instead");
@@ -362,11 +365,14 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
         "evaporated low-mass tail of the spectrum\n",
         r.survivors_mass / u::gram);
   const Tightest best = tightest(r);
+  const char* moved = std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum)
+                          ? "monochromatic populations at each scan mass"
+                          : "this spectrum's shape moved to each scan mass";
   if (best.found)
-    t += fmt::format("  most constraining: {} at {:.4g} g: beta_max = {:.4e} (f_max = {:.4e})\n", best.prescription,
-                     best.mass / u::gram, best.beta, best.f);
+    t += fmt::format("  tightest scan bound ({}): {} at {:.4g} g: beta_max = {:.4e} (f_max = {:.4e})\n", moved,
+                     best.prescription, best.mass / u::gram, best.beta, best.f);
   else
-    t += "  most constraining: none (no bound below beta = 1 anywhere on the scan)\n";
+    t += fmt::format("  tightest scan bound ({}): none (no bound below beta = 1 anywhere on the scan)\n", moved);
   for (const auto& c : cautions(l.scenario)) t += "  caution: " + c + "\n";
   return t;
 }

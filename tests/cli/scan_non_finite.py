@@ -16,9 +16,9 @@ TOKEN = re.compile(r"(?<![A-Za-z0-9_])[-+]?(nan|inf|infinity)(?![A-Za-z0-9_])", 
 # Keys whose value may be null by design: "none" in the documented JSON schemas.
 NULLABLE = {"instability_scale_GeV", "log10_expected_decays", "log10_decay_probability", "bounce_scale_GeV",
             "critical_top_mass_GeV", "B", "output", "beta_max", "f_max", "band_low", "band_high", "lambda6", "lambda8",
-            "phi_horizon_GeV", "mass_left_g", "lightcone_count", "value", "most_constraining",
+            "phi_horizon_GeV", "mass_left_g", "lightcone_count", "value", "tightest_scan_bound",
             "log10_unseeded_expected_decays", "failure", "prescription", "mass_g", "width",
-            "log10_expected_decays_thermal"}
+            "log10_expected_decays_thermal", "beta", "f_pbh"}
 TEXT = {".csv", ".json", ".yaml", ".tsv", ".txt", ".stdout", ""}
 
 

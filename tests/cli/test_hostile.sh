@@ -25,7 +25,7 @@ nothing_in "mass 1e-10 g" "$work/results/tiny"
 run_ok "mass 1e50 g" mass_huge.yaml
 # A 1e50 g hole outlives the universe by ~1e107 ages: nothing decays, nothing is constrained.
 [[ $(lightcone "$work/results/mass 1e50 g/summary.json" probe_field) == 0.0 ]] || fail "mass 1e50 g: decays counted"
-stdout_has "mass 1e50 g" "most constraining: none"
+stdout_has "mass 1e50 g" "tightest scan bound (monochromatic populations at each scan mass): none"
 run "evaporate 1e-10 g" 0 -- "$ember" evaporate --mass "1e-10 g" --json
 grep -q '"warnings"' "$work/out" || fail "evaporate 1e-10 g: no warnings in the JSON"
 grep -q 'below the Planck mass' "$work/out" || fail "evaporate 1e-10 g: no Planck-mass warning"
@@ -54,7 +54,7 @@ run_ok "grid of 1" grid_one.yaml
 # --- top masses: lambda never negative; lambda negative below 1e6 GeV -----------------------------
 run_ok "stable top mass" top_stable.yaml
 stdout_has "stable top mass" "no constraint: the Higgs potential is stable"
-stdout_has "stable top mass" "most constraining: none"
+stdout_has "stable top mass" "tightest scan bound (monochromatic populations at each scan mass): none"
 run_ok "low instability" top_low_instability.yaml
 stdout_has "low instability" "instability at 1.5"
 stdout_has "low instability" "excluded on their own"
