@@ -72,6 +72,7 @@ TEST_CASE("every variant reads into its typed form") {
     CHECK(s.population.abundance.value == 0);
     CHECK(close(s.cosmology.cmb_temperature, 2.35e-13));
     CHECK(close(s.evaporation.mass_loss.qcd_scale, 0.25));
+    CHECK(close(s.evaporation.mass_loss.qcd_width, 0.3));
     CHECK(s.evaporation.mass_loss.argument == ember::evaporation::GreybodyArgument::momentum);
     CHECK(std::holds_alternative<StandardModelForm>(s.standard_model.potential));
   }

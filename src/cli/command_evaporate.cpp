@@ -27,6 +27,7 @@ struct EvaporateOptions {
   std::string mass, lifetime, age, formed_at, today = "13.787 Gyr";
   std::string qcd_scale = fmt::format("{} GeV", format_real(MassLossOptions{}.qcd_scale)), argument = "energy",
               cutoff = fmt::format("{} Mpl", format_real(TrajectoryOptions{}.cutoff_mass / u::planck_mass));
+  double qcd_width = MassLossOptions{}.qcd_width;
   std::optional<std::string> species;  // set (maybe empty) when --species is given
   std::string particles, table, trajectory;
   bool json = false, quiet = false;
@@ -45,6 +46,11 @@ Setup setup(const EvaporateOptions& o) {
     throw InputError(fmt::format("--qcd-scale {}: outside the allowed range; expected between {} GeV and {} GeV",
                                  o.qcd_scale, format_real(MassLossOptions::qcd_scale_min),
                                  format_real(MassLossOptions::qcd_scale_max)));
+  options.qcd_width = o.qcd_width;
+  if (!(options.qcd_width >= MassLossOptions::qcd_width_min && options.qcd_width <= MassLossOptions::qcd_width_max))
+    throw InputError(fmt::format("--qcd-width {}: outside the allowed range; expected between {} and {} (in ln T_H)",
+                                 format_real(o.qcd_width), format_real(MassLossOptions::qcd_width_min),
+                                 format_real(MassLossOptions::qcd_width_max)));
   if (o.argument != "energy" && o.argument != "momentum")
     throw InputError(fmt::format("--greybody-argument {}: unknown; expected energy or momentum", o.argument));
   options.argument = o.argument == "momentum" ? GreybodyArgument::momentum : GreybodyArgument::energy;
@@ -70,9 +76,10 @@ Setup setup(const EvaporateOptions& o) {
 
 std::string model_line(const MassLoss& ml) {
   return fmt::format(
-      "primary emission; greybody factors at the {} (MacGibbon-Webber); QCD scale {} GeV; {} species from {}",
+      "primary emission; greybody factors at the {} (MacGibbon-Webber); partons above T_H = {} GeV, hadrons below "
+      "(width {} in ln T_H); {} species from {}",
       ml.options().argument == GreybodyArgument::energy ? "energy" : "momentum", format_real(ml.options().qcd_scale),
-      ml.particles().species.size(), ml.particles().source);
+      format_real(ml.options().qcd_width), ml.particles().species.size(), ml.particles().source);
 }
 
 std::string csv_trajectory(const Trajectory& tr, const EvaporateOptions& o) {
@@ -81,9 +88,10 @@ std::string csv_trajectory(const Trajectory& tr, const EvaporateOptions& o) {
       "# columns: age_s (time since formation), time_left_s, mass_g, temperature_GeV\n"
       "# numerical integration down to {:.6g} g; below it the analytic tail M^3 = 3 alpha(M_cut) t_left "
       "(analytic_tail = true)\n"
-      "# options: qcd_scale {}, greybody argument {}, cutoff {}\n"
+      "# options: qcd_scale {}, qcd_width {}, greybody argument {}, cutoff {}\n"
       "age_s,time_left_s,mass_g,temperature_GeV\n",
-      format_real(tr.initial_mass() / u::gram), tr.cutoff_mass() / u::gram, o.qcd_scale, o.argument, o.cutoff);
+      format_real(tr.initial_mass() / u::gram), tr.cutoff_mass() / u::gram, o.qcd_scale, format_real(o.qcd_width),
+      o.argument, o.cutoff);
   const double top = std::log(tr.initial_mass()),
                bottom = std::log(std::min(tr.cutoff_mass(), tr.initial_mass()) * 1e-3);
   const int rows = 400;
@@ -261,7 +269,10 @@ Command add_evaporate(CLI::App& parent) {
   app->add_option("--today", o->today, "the age of the universe (default 13.787 Gyr, Planck 2018)");
   app->add_option(
       "--qcd-scale", o->qcd_scale,
-      fmt::format("energy above which quarks and gluons are emitted, pions below (default {})", o->qcd_scale));
+      fmt::format("Hawking temperature above which quarks and gluons are emitted, hadrons below (default {})",
+                  o->qcd_scale));
+  app->add_option("--qcd-width", o->qcd_width,
+                  fmt::format("width of that switch in ln T_H (default {})", format_real(o->qcd_width)));
   app->add_option("--greybody-argument", o->argument,
                   "massive species: greybody factors at the energy or the momentum");
   app->add_option("--cutoff", o->cutoff,

@@ -48,6 +48,14 @@ double hawking_temperature(double mass) {
   return units::planck_mass * units::planck_mass / (8 * pi * mass);
 }
 
+double parton_weight(double temperature, const MassLossOptions& o) {
+  return 0.5 * std::erfc(-std::log(temperature / o.qcd_scale) / (std::sqrt(2.0) * o.qcd_width));
+}
+
+double hadron_weight(double temperature, const MassLossOptions& o) {
+  return 0.5 * std::erfc(std::log(temperature / o.qcd_scale) / (std::sqrt(2.0) * o.qcd_width));
+}
+
 double macgibbon_alpha_unit() {
   // 5.34e25 g^3 s^-1 (MacGibbon, PRD 44 (1991) 376), converted to GeV^4 = GeV^3 / GeV^-1.
   return 5.34e25 * units::gram * units::gram * units::gram / units::second;
@@ -57,6 +65,9 @@ void MassLossOptions::validate() const {
   if (!(qcd_scale >= qcd_scale_min && qcd_scale <= qcd_scale_max))
     throw InputError(fmt::format("mass-loss options: qcd_scale = {} GeV: must lie between {} GeV and {} GeV", qcd_scale,
                                  qcd_scale_min, qcd_scale_max));
+  if (!(qcd_width >= qcd_width_min && qcd_width <= qcd_width_max))
+    throw InputError(fmt::format("mass-loss options: qcd_width = {}: must lie between {} and {} (a width in ln T_H)",
+                                 qcd_width, qcd_width_min, qcd_width_max));
   if (nodes_per_decade < 5 || nodes_per_decade > 10000)
     throw InputError(fmt::format("mass-loss options: nodes_per_decade = {}: must lie in [5, 10000]", nodes_per_decade));
 }
@@ -79,14 +90,12 @@ struct MassLoss::Kernel {
     return std::exp(ln_j->value(v_of(a)));
   }
 
-  // (1/2pi) int dx x S(p(x)) th(x) over lo <= x < hi, p = sqrt(x^2 - m^2): substituting p,
+  // (1/2pi) int dx x S(p(x)) th(x) over x >= m, p = sqrt(x^2 - m^2): substituting p,
   // = (1/2pi) int dp p S(p) th(sqrt(p^2 + m^2)).
-  double momentum_window(double m, double lo, double hi) const {
-    if (lo >= tolerance::kernel_a_max) return 0.0;
-    const double p_lo = std::sqrt(std::max(0.0, lo * lo - m * m));
-    const double x_top = std::min(hi, lo + 3.0);  // e^{-8 pi * 3} ~ 1e-33 of the start beyond
-    const double p_hi = std::sqrt(std::max(0.0, x_top * x_top - m * m));
-    if (!(p_hi > p_lo)) return 0.0;
+  double momentum_window(double m) const {
+    if (m >= tolerance::kernel_a_max) return 0.0;
+    const double x_top = m + 3.0;  // e^{-8 pi * 3} ~ 1e-33 of the start beyond
+    const double p_lo = 0.0, p_hi = std::sqrt(x_top * x_top - m * m);
     const std::function<double(double)> f = [&](double p) {
       return p * weighted(p) * thermal(std::sqrt(p * p + m * m), fermion) / (2 * pi);
     };
@@ -98,9 +107,9 @@ struct MassLoss::Kernel {
     const int status = gsl_integration_qag(&g, p_lo, p_hi, 0.0, tolerance::window_quadrature_relative, 200,
                                            GSL_INTEG_GAUSS31, w.get(), &result, &abserr);
     if (status != GSL_SUCCESS && status != GSL_EROUND)
-      throw NumericalError("momentum-window quadrature (GSL qag)",
-                           fmt::format("spin {}/2, m = {:.4g}, window [{:.4g}, {:.4g}): {}", twice_spin, m, lo, hi,
-                                       gsl_strerror(status)));
+      throw NumericalError(
+          "momentum-window quadrature (GSL qag)",
+          fmt::format("spin {}/2, m = {:.4g}, momenta [0, {:.4g}]: {}", twice_spin, m, p_hi, gsl_strerror(status)));
     return result;
   }
 };
@@ -134,16 +143,17 @@ struct MassLoss::Tabulated {
   double ln_m_lo = 0, ln_m_hi = 0, alpha_lo = 0, alpha_hi = 0;
 };
 
+// The species' emission integral over E >= m, times its weight at this hole's temperature.
 double MassLoss::window(const Species& s, double mass) const {
   const Kernel& k = (*kernels_)[static_cast<std::size_t>(kernel_index(s.twice_spin))];
-  const double to_x = mass / (units::planck_mass * units::planck_mass);  // E -> x = E M / M_Pl^2
-  const double a_m = s.mass * to_x, a_qcd = options_.qcd_scale * to_x;
-  double lo = a_m, hi = INFINITY;
-  if (s.window == Window::partons) lo = std::max(a_m, a_qcd);
-  if (s.window == Window::hadrons) hi = a_qcd;
-  if (!(hi > lo)) return 0.0;
-  if (options_.argument == GreybodyArgument::momentum && s.mass > 0) return k.momentum_window(a_m, lo, hi);
-  return k.J(lo) - (std::isfinite(hi) ? k.J(hi) : 0.0);
+  const double a_m = s.mass * mass / (units::planck_mass * units::planck_mass);  // x = E M / M_Pl^2 at E = m
+  const double t = hawking_temperature(mass);
+  const double weight = s.window == Window::partons   ? parton_weight(t, options_)
+                        : s.window == Window::hadrons ? hadron_weight(t, options_)
+                                                      : 1.0;
+  if (!(weight > 0)) return 0.0;
+  if (options_.argument == GreybodyArgument::momentum && s.mass > 0) return weight * k.momentum_window(a_m);
+  return weight * k.J(a_m);
 }
 
 std::vector<double> MassLoss::species_alpha(double mass) const {

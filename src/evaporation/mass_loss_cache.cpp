@@ -12,9 +12,9 @@ namespace ember::evaporation {
 
 std::string mass_loss_key(const greybody::Table& g, const ParticleSet& p, const MassLossOptions& o) {
   std::string text =
-      fmt::format("ember {} numerics {}\ngreybody {}\nqcd {:a} argument {} nodes {}\n", version,
+      fmt::format("ember {} numerics {}\ngreybody {}\nqcd {:a} width {:a} argument {} nodes {}\n", version,
                   embedded::numerics_fingerprint(), fingerprint(greybody::format_table(g, {})), o.qcd_scale,
-                  o.argument == GreybodyArgument::momentum ? "momentum" : "energy", o.nodes_per_decade);
+                  o.qcd_width, o.argument == GreybodyArgument::momentum ? "momentum" : "energy", o.nodes_per_decade);
   for (const auto& s : p.species)
     text += fmt::format("{} {:a} {} {:a} {} {} {}\n", s.name, s.mass, s.twice_spin, s.charge, s.colour, s.dof,
                         static_cast<int>(s.window));

@@ -79,6 +79,7 @@ TunnellingChoices read_tunnelling(const YAML::Node& n) {
 EvaporationChoices read_evaporation(const YAML::Node& n) {
   EvaporationChoices e;
   e.mass_loss.qcd_scale = qty(n["qcd_scale"], units::energy);
+  e.mass_loss.qcd_width = num(n["qcd_width"]);
   e.mass_loss.argument = n["greybody_argument"].Scalar() == "momentum" ? evaporation::GreybodyArgument::momentum
                                                                        : evaporation::GreybodyArgument::energy;
   e.trajectory.cutoff_mass = mass(n["cutoff_mass"]);

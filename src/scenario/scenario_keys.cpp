@@ -140,9 +140,13 @@ Key standard_model() {
 Key evaporation() {
   return section(
       "evaporation", "Hawking evaporation",
-      {quantity("qcd_scale", "confinement scale: quarks and gluons are emitted at energies above it, pions below",
+      {quantity("qcd_scale",
+                "confinement scale: holes hotter than it emit quarks and gluons, cooler ones light hadrons (pions)",
                 units::energy, "GeV", format_real(evaporation::MassLossOptions{}.qcd_scale) + " GeV",
                 between(evaporation::MassLossOptions::qcd_scale_min, evaporation::MassLossOptions::qcd_scale_max)),
+       number("qcd_width", "width of the switch from hadrons to partons, a standard deviation in ln T_H",
+              format_real(evaporation::MassLossOptions{}.qcd_width),
+              between(evaporation::MassLossOptions::qcd_width_min, evaporation::MassLossOptions::qcd_width_max)),
        option("greybody_argument", "massive species: evaluate greybody factors at the energy or the momentum",
               {"energy", "momentum"}, "energy"),
        option("greybody_table",

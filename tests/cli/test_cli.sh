@@ -138,6 +138,8 @@ run "evaporate low cutoff" 2 -- "$ember" evaporate --mass 1e15g --cutoff "0.1 Mp
 stderr_has "evaporate low cutoff" "cutoff_mass"
 run "evaporate qcd scale out of range" 2 -- "$ember" evaporate --mass 1e15g --qcd-scale "1e30 GeV"
 stderr_has "evaporate qcd scale out of range" "between 0.1 GeV and 1 GeV"
+run "evaporate qcd width out of range" 2 -- "$ember" evaporate --mass 1e15g --qcd-width 5
+stderr_has "evaporate qcd width out of range" "--qcd-width 5: outside the allowed range; expected between 0.1 and 2"
 run "evaporate empty species" 2 -- "$ember" evaporate --mass 1e15g --species ""
 run "evaporate sub-Planck" 0 -- "$ember" evaporate --mass "1e-5 g"
 stdout_has "evaporate sub-Planck" "warning: below the Planck mass"

@@ -13,7 +13,7 @@ json_ok() { json_count=$((json_count + 1)); cp "$work/out" "$work/json/$json_cou
 # --- run ------------------------------------------------------------------------------------------
 sed -e 's/points: 31/points: 4/' -e 's|directory: ember-out/demo|directory: unused|' "$src/configs/demo.yaml" >"$work/demo-small.yaml"
 run "run demo" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run"
-stdout_has "run demo" "survivors: holes formed above 5.41e+14 g survive today"
+stdout_has "run demo" "survivors: holes formed above 5.31e+14 g survive today"
 stdout_has "run demo" "EXCLUDED"
 stdout_has "run demo" "caution: The constraint disappears if new physics stabilises"
 stdout_has "run demo" "semiclassical floor"

@@ -6,14 +6,17 @@
 // flavours and gravitons at M >> 1e17 g).
 //
 // Primary emission of each species s (dof g, spin s, mass m):
-//   d^2N/(dt dE) = g/(2pi) sum_l (2l+1) Gamma_{s,l}(E M/M_Pl^2) / (e^{E/T} -+ 1),  E in its window,
+//   d^2N/(dt dE) = w_s(T) g/(2pi) sum_l (2l+1) Gamma_{s,l}(E M/M_Pl^2) / (e^{E/T} -+ 1),  E >= m,
 // with massless greybody factors evaluated at the energy E (MacGibbon-Webber approximation), or
-// at the momentum p = sqrt(E^2 - m^2) as a sensitivity check. Windows (data/particles.yaml):
-// E >= m for most species; quarks and gluons only for E >= max(m, Lambda_QCD), as free partons;
-// pions only for m <= E < Lambda_QCD. The split is in energy, so alpha(M) stays smooth across
-// the confinement scale. With x = E M / M_Pl^2 the power is
-//   P = (M_Pl^4 / M^2) sum_s g_s W_s,  W_s = (1/2pi) int_window dx x S_s(x)/(e^{8 pi x} -+ 1),
-// so alpha = M_Pl^4 sum_s g_s W_s(M m_s / M_Pl^2, ...).
+// at the momentum p = sqrt(E^2 - m^2) as a sensitivity check. The weight w_s follows the Hawking
+// temperature T, not the energy: a hole emits what is elementary on the scale of its own
+// emission (MacGibbon & Webber, PRD 41 (1990) 3052), so quarks and gluons only once T is above
+// the QCD scale, and below it the light hadrons (data/particles.yaml, `window`):
+//   w = 1 (window all),  w = P(T) (partons),  w = 1 - P(T) (hadrons),
+//   P(T) = (1/2) erfc(-ln(T/qcd_scale) / (sqrt(2) qcd_width)),
+// a normal distribution function in ln T (parton_weight below). With x = E M / M_Pl^2 the power is
+//   P = (M_Pl^4 / M^2) sum_s g_s w_s W_s,  W_s = (1/2pi) int_{x >= x_m} dx x S_s(x)/(e^{8 pi x} -+ 1),
+// so alpha = M_Pl^4 sum_s g_s w_s(T) W_s(M m_s / M_Pl^2).
 #pragma once
 
 #include <memory>
@@ -30,11 +33,25 @@ namespace ember::evaporation {
 enum class GreybodyArgument { energy, momentum };
 
 struct MassLossOptions {
-  // Confinement scale (GeV): free quarks and gluons above it in energy, pions below. 0.3 GeV:
-  // MacGibbon & Webber, PRD 41 (1990) 3052, take Lambda_QCD ~ 250-300 MeV for the onset of quark
-  // and gluon emission (from memory); the range is the plausible span of that onset.
+  // The Hawking temperature at which quarks and gluons take over from hadrons (GeV): half the
+  // QCD-coloured emission is partons there. 0.3 GeV: MacGibbon & Webber, PRD 41 (1990) 3052,
+  // emit quarks and gluons once T_H exceeds Lambda_QCD ~ 250-300 MeV (from memory); the range is
+  // the plausible span of that onset.
   static constexpr double qcd_scale_min = 0.1, qcd_scale_max = 1.0;
   double qcd_scale = 0.3;
+  // Width of the switch from hadrons to partons, as a standard deviation in ln T_H. Why a width:
+  // at a given T_H the emitted power spreads over energies, and the quanta near T_H ~ Lambda_QCD
+  // are partly above and partly below the confinement scale, so the change of description cannot
+  // be sharper than that spread. 0.5 is the spread of ln E in the Hawking power spectrum: for
+  // dE/dt ~ E^3 e^{-E/T} (the geometric-optics limit), Var(ln E) = psi'(4) = pi^2/6 - 49/36 =
+  // 0.284, a standard deviation of 0.53 (derived; greybody factors, which cut the low energies,
+  // narrow it a little). The weight then runs from 16% to 84% between Lambda/1.65 and 1.65 Lambda.
+  // Range: at 0.1 the switch spans under two alpha(M) nodes (one every 0.058 in ln M) and the
+  // spline's measured error is already 6e-4 (5e-6 at 0.5), growing fast below; above 2 it spreads
+  // over a factor e^4 ~ 50 in T_H each way, from below the pion mass to beyond the charm, and no
+  // longer marks a transition.
+  static constexpr double qcd_width_min = 0.1, qcd_width_max = 2.0;
+  double qcd_width = 0.5;
   GreybodyArgument argument = GreybodyArgument::energy;
   // alpha is tabulated at this many nodes per decade of mass.
   int nodes_per_decade = tolerance::mass_nodes_per_decade;
@@ -95,5 +112,11 @@ class MassLoss {
 
 // Hawking temperature T = M_Pl^2 / (8 pi M) (GeV, for M in GeV).
 double hawking_temperature(double mass);
+
+// The share of QCD-coloured emission carried by free quarks and gluons at Hawking temperature
+// `temperature` (GeV): P(T) in the formula above. Hadrons carry hadron_weight = 1 - P, computed
+// directly so that neither loses digits in its tail.
+double parton_weight(double temperature, const MassLossOptions& options);
+double hadron_weight(double temperature, const MassLossOptions& options);
 
 }  // namespace ember::evaporation

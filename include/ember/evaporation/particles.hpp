@@ -7,10 +7,12 @@
 
 namespace ember::evaporation {
 
+// Which Hawking temperatures a species is emitted at (at every energy E >= mass); the weights are
+// in mass_loss.hpp.
 enum class Window {
-  all,      // E >= mass
-  partons,  // E >= max(mass, qcd_scale): free quarks and gluons
-  hadrons,  // mass <= E < qcd_scale: pions
+  all,      // at every temperature
+  partons,  // free quarks and gluons: weight parton_weight(T), 1 well above the QCD scale
+  hadrons,  // light hadrons: weight hadron_weight(T), 1 well below the QCD scale
 };
 
 struct Species {
