@@ -16,7 +16,7 @@ namespace {
 
 struct RunArguments {
   std::string scenario, output, cache_dir, checkpoint;
-  bool json = false, no_plots = false, quiet = false, no_cache = false, restart = false;
+  bool json = false, no_plots = false, quiet = false, no_cache = false, restart = false, adopt_folder = false;
   int threads = default_threads();
 };
 
@@ -45,7 +45,7 @@ void print_notes(const pipeline::ScenarioRun& run, bool quiet) {
 report::Written write_results(const scenario::LoadedScenario& loaded, const pipeline::ScenarioRun& run,
                               const std::filesystem::path& out, bool plots) {
   try {
-    const report::Written written = report::write_outputs(loaded, run.results, out, plots);
+    const report::Written written = report::write_outputs(loaded, run.results, out, plots, run.foreign);
     pipeline::discard_checkpoint(run);
     return written;
   } catch (const OutputError& e) {
@@ -68,6 +68,7 @@ int run(const RunArguments& o, const ExecutorFactory& factory) {
   if (!o.cache_dir.empty()) settings.cache_directory = o.cache_dir;
   if (!o.checkpoint.empty()) settings.checkpoint = o.checkpoint;
   settings.restart = o.restart;
+  settings.foreign = o.adopt_folder ? ForeignFolder::adopt : ForeignFolder::refuse;
   settings.executor = executor.get();
   const pipeline::ScenarioRun run = pipeline::run_scenario(loaded, out, settings);
   const pipeline::JobResults& results = run.results;
@@ -121,6 +122,8 @@ Command add_run(CLI::App& parent, ExecutorFactory factory) {
       "checkpoint finished work (tables, chunks of masses) here as the run goes; rerunning the same command resumes "
       "(default: OUTPUT/.ember-checkpoint, removed once the outputs are written)");
   app->add_flag("--restart", o->restart, "discard a checkpoint (of this or another scenario) and start afresh");
+  app->add_flag("--adopt-folder", o->adopt_folder,
+                "write into a non-empty results folder that no run of Ember wrote (its other files are left alone)");
   app->add_flag("--json", o->json, "print the summary as one JSON object on stdout");
   return {app, [o, factory = std::move(factory)] { return run(*o, factory); }};
 }

@@ -9,8 +9,9 @@ namespace ember::pipeline {
 
 ScenarioRun run_scenario(const scenario::LoadedScenario& loaded, const std::filesystem::path& output,
                          const RunSettings& settings, JobOptions o) {
-  check_results_folder(output);  // before the computation, not after
+  check_results_folder(output, settings.foreign);  // before the computation, not after
   ScenarioRun run;
+  run.foreign = settings.foreign;
   o.threads = settings.threads;
   o.quiet = settings.quiet;
   o.executor = settings.executor;

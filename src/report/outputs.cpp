@@ -396,7 +396,7 @@ std::string draw_plots(const scenario::Scenario& s, const std::filesystem::path&
 }  // namespace
 
 Written write_outputs(const scenario::LoadedScenario& l, const pipeline::JobResults& r,
-                      const std::filesystem::path& dir, bool plots) {
+                      const std::filesystem::path& dir, bool plots, ForeignFolder foreign) {
   Written w;
   const scenario::Scenario& s = l.scenario;
   // Every text is built and checked (no NaN or inf anywhere) before the first is written, so a
@@ -418,7 +418,7 @@ Written write_outputs(const scenario::LoadedScenario& l, const pipeline::JobResu
   for (const auto& [name, text] : texts)
     if (name != "summary.json" && name != "resolved.yaml") require_finite_text(text, name);
   // The set appears whole or not at all (core/output_set.hpp), summary.json last.
-  OutputSet set(dir, "summary.json");
+  OutputSet set(dir, "summary.json", foreign);
   for (const auto& [name, text] : texts) {
     set.add(name, text);
     w.files.push_back(name);

@@ -162,4 +162,26 @@ for name, p in r.get("prescriptions", {}).items():
 sys.exit(1 if bad else 0)
 PY
 
+# --- the output folder belongs to the run ---------------------------------------------------------
+# A rerun with a smaller file set leaves none of the old set's other files, and never touches a
+# file no run of Ember wrote.
+echo "my notes" >"$work/run4/notes.txt"
+sed -e 's|directory: unused|directory: unused\n  files: [summary]|' "$work/demo-small.yaml" >"$work/demo-summary-only.yaml"
+grep -q 'files: \[summary\]' "$work/demo-summary-only.yaml" || fail "folder: the test scenario has no output.files line"
+run "rerun smaller set" 0 -- "$ember" run "$work/demo-summary-only.yaml" -o "$work/run4" --no-plots --quiet
+for f in constraint.csv decay.csv resolved.yaml rates.csv potential.csv; do
+  [[ -e "$work/run4/$f" ]] && fail "rerun smaller set: the old run's $f is still there"
+done
+[[ -s "$work/run4/summary.json" ]] || fail "rerun smaller set: no summary.json"
+[[ $(cat "$work/run4/notes.txt") == "my notes" ]] || fail "rerun smaller set: a file Ember did not write was touched"
+grep -qx 'summary.json' "$work/run4/.ember-files" || fail "rerun smaller set: the manifest does not list summary.json"
+# A non-empty folder no run of Ember wrote is refused (bad input, exit 2), unless adopted.
+mkdir -p "$work/foreign" && echo "thesis draft" >"$work/foreign/chapter1.tex"
+run "foreign folder" 2 -- "$ember" run "$work/demo-summary-only.yaml" -o "$work/foreign" --no-plots --quiet
+stderr_has "foreign folder" "no run of Ember wrote"
+[[ $(ls -A "$work/foreign") == "chapter1.tex" ]] || fail "foreign folder: something was written there"
+run "adopted folder" 0 -- "$ember" run "$work/demo-summary-only.yaml" -o "$work/foreign" --no-plots --quiet --adopt-folder
+[[ -s "$work/foreign/summary.json" && $(cat "$work/foreign/chapter1.tex") == "thesis draft" ]] ||
+  fail "adopted folder: expected the summary beside the untouched file"
+
 finish "ember run"

@@ -5,6 +5,12 @@
 // therefore finds every file it describes; a run that fails before commit changes nothing there
 // (a folder it created is removed again).
 //
+// The folder belongs to the run: each commit records the files it moved into place in a manifest
+// (`.ember-files`, one name a line). The next commit removes the previous set's files that the new
+// set does not have, and never touches a file no set recorded. A non-empty folder that no run of
+// Ember wrote (no manifest, and no summary.json of an earlier Ember) is refused unless the caller
+// adopts it (ForeignFolder::adopt); hidden entries (checkpoints, staging) do not count.
+//
 // Errors name the results folder, not an internal file: InputError when the folder cannot be a
 // folder (a plain file is in the way), OutputError when the system refuses (disk full, read-only,
 // no permission).
@@ -17,13 +23,16 @@
 
 namespace ember {
 
+inline constexpr const char* manifest_name = ".ember-files";
+enum class ForeignFolder { refuse, adopt };
+
 // Before a long computation: refuses a results folder that could never be written, with the
 // same errors as OutputSet (a plain file in the way; an existing ancestor not writable).
-void check_results_folder(const std::filesystem::path& folder);
+void check_results_folder(const std::filesystem::path& folder, ForeignFolder foreign = ForeignFolder::refuse);
 
 class OutputSet {
  public:
-  OutputSet(std::filesystem::path folder, std::string marker);
+  OutputSet(std::filesystem::path folder, std::string marker, ForeignFolder foreign = ForeignFolder::refuse);
   OutputSet(const OutputSet&) = delete;
   OutputSet& operator=(const OutputSet&) = delete;
   ~OutputSet();  // not committed: the staging folder goes (and the results folder, if made here and empty)

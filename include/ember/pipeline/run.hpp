@@ -7,6 +7,7 @@
 #include <filesystem>
 #include <optional>
 
+#include "ember/core/output_set.hpp"
 #include "ember/pipeline/job.hpp"
 #include "ember/scenario/load.hpp"
 
@@ -25,12 +26,15 @@ struct RunSettings {
   std::optional<std::filesystem::path> checkpoint;
   bool restart = false;
   const Executor* executor = nullptr;  // none: `threads` threads here. Not owned.
+  // A non-empty results folder no run of Ember wrote: refused, or adopted (core/output_set.hpp).
+  ForeignFolder foreign = ForeignFolder::refuse;
 };
 
 struct ScenarioRun {
   JobResults results;
   std::filesystem::path checkpoint;                      // where finished items were kept
   std::optional<std::filesystem::path> cache_directory;  // none: the cache was off
+  ForeignFolder foreign = ForeignFolder::refuse;         // as settled before the run, for the writing
 };
 
 // Checks that `output` can hold the results before computing anything (InputError, OutputError),

@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "ember/core/output_set.hpp"
 #include "ember/pipeline/job.hpp"
 #include "ember/scenario/load.hpp"
 
@@ -23,7 +24,8 @@ struct Written {
 };
 
 Written write_outputs(const scenario::LoadedScenario& loaded, const pipeline::JobResults& results,
-                      const std::filesystem::path& directory, bool plots);
+                      const std::filesystem::path& directory, bool plots,
+                      ForeignFolder foreign = ForeignFolder::refuse);
 
 nlohmann::ordered_json summary_json(const scenario::LoadedScenario& loaded, const pipeline::JobResults& results);
 
