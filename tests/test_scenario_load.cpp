@@ -1,6 +1,7 @@
 // Loading good scenarios: values land in internal units, defaults are filled in, paths resolve.
 #include <doctest/doctest.h>
 
+#include <cmath>
 #include <filesystem>
 
 #include "ember/scenario/load.hpp"
@@ -100,4 +101,18 @@ TEST_CASE("all errors of a file are reported together, in line order") {
 TEST_CASE("files that are not scenario files are input errors") {
   CHECK_THROWS_WITH_AS(load_scenario_file(source_dir / "no-such.yaml"), doctest::Contains("no such file"), InputError);
   CHECK_THROWS_WITH_AS(load_scenario_file(source_dir / "configs"), doctest::Contains("is a directory"), InputError);
+}
+
+TEST_CASE("a confidence level is the exclusion rule at max_decays = -ln(1 - CL)") {
+  // Excluded when the survival probability e^-N is below 1 - CL, i.e. N > -ln(1 - CL) (derived);
+  // at 95% that is N > 3.00 (ln 20 = 2.9957).
+  const auto with_cl = ember::scenario::load_scenario_text(
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-20}\n"
+      "exclusion: {confidence_level: 0.95}\n",
+      "cl.yaml", ".");
+  CHECK(with_cl.scenario.exclusion.max_decays == doctest::Approx(std::log(20.0)).epsilon(1e-12));
+  const auto plain = ember::scenario::load_scenario_text(
+      "population:\n  spectrum: {shape: monochromatic, mass: 1e9 g}\n  abundance: {measure: beta, value: 1e-20}\n",
+      "plain.yaml", ".");
+  CHECK(plain.scenario.exclusion.max_decays == 1);
 }

@@ -54,6 +54,10 @@ void central_outcome(const JobPlan& plan, const ItemResult& item, PrescriptionOu
   outcome.table_summary = item.table_summary;
   outcome.plot_ratio = item.plot_ratio;
   outcome.plot_low_action = item.plot_low_action;
+  if (!plan.monochromatic() && item.failure.empty()) {
+    outcome.dn_dlnm = population::contributions(*plan.base, item.counts.f_pbh, item.scan);
+    outcome.range90 = population::contribution_range(item.scan, outcome.dn_dlnm, 0.9);
+  }
   outcome.failure = item.failure;
 }
 

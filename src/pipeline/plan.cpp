@@ -32,6 +32,16 @@ std::unique_ptr<MassFunction> spectrum_at(const Spectrum& s, std::optional<doubl
   return population::tabulated(t.file.string(), t.mass_unit);
 }
 
+// The scenario's spectrum at a mass and width, with its cut when one is asked for.
+std::unique_ptr<MassFunction> spectrum_of(const Population& p, std::optional<double> mass,
+                                          std::optional<double> width) {
+  std::unique_ptr<MassFunction> s = spectrum_at(p.spectrum, mass, width);
+  if (!p.cut_below) return s;
+  if (s->monochromatic())
+    throw InputError("population.cut_below: applies to extended spectra; expected no cut for a monochromatic one");
+  return population::cut_below(std::move(s), *p.cut_below);
+}
+
 std::vector<HiggsPoint> higgs_points(const StandardModelInputs& sm, const ScanChoices& scan) {
   const auto* form = std::get_if<StandardModelForm>(&sm.potential);
   HiggsPoint central{sm.inputs, form ? form->options.lambda6 : 0.0, form ? form->options.lambda8 : 0.0, true,
@@ -105,8 +115,8 @@ void plan_rows(const Scenario& s, JobPlan& plan) {
     for (const double w : widths) plan.rows.push_back({m, w});
   }
   for (const ScanRow& r : plan.rows)
-    plan.row_spectra.push_back(table_spectrum ? spectrum_at(s.population.spectrum, std::nullopt, std::nullopt)
-                                              : spectrum_at(s.population.spectrum, r.mass, r.width));
+    plan.row_spectra.push_back(table_spectrum ? spectrum_of(s.population, std::nullopt, std::nullopt)
+                                              : spectrum_of(s.population, r.mass, r.width));
 }
 
 // Extended spectra: the response grid spans every row's spectrum. A wide spectrum's tails can
@@ -183,7 +193,7 @@ JobPlan make_plan(const Scenario& s, const JobOptions& o, const cosmology::Backg
   plan.options = &o;
   plan.background = &background;
   plan.mass_loss = &mass_loss;
-  plan.base = spectrum_at(s.population.spectrum, std::nullopt, std::nullopt);
+  plan.base = spectrum_of(s.population, std::nullopt, std::nullopt);
   spectrum = plan.base->description();
   plan_rows(s, plan);
   plan_grid(s, plan, spectrum);

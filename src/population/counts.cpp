@@ -74,6 +74,33 @@ const Response& nearest(const std::vector<Response>& rs, double mass) {
 
 }  // namespace
 
+std::vector<double> contributions(const MassFunction& s, double f_pbh, const std::vector<Response>& rs) {
+  std::vector<double> out;
+  for (const auto& r : rs)
+    out.push_back(r.f_per_beta > 0 ? f_pbh * r.mass * s.psi(r.mass) * r.lightcone_per_beta / r.f_per_beta : 0.0);
+  return out;
+}
+
+std::optional<ContributionRange> contribution_range(const std::vector<Response>& rs, const std::vector<double>& dn,
+                                                    double share) {
+  if (rs.size() < 2 || dn.size() != rs.size()) return std::nullopt;
+  std::vector<double> cumulative{0};
+  for (std::size_t i = 0; i + 1 < rs.size(); ++i)
+    cumulative.push_back(cumulative.back() + 0.5 * (dn[i] + dn[i + 1]) * std::log(rs[i + 1].mass / rs[i].mass));
+  const double total = cumulative.back();
+  if (!(total > 0)) return std::nullopt;
+  const auto at = [&](double q) {  // the mass where the cumulative share reaches q
+    for (std::size_t i = 0; i + 1 < cumulative.size(); ++i)
+      if (cumulative[i + 1] >= q * total) {
+        const double step = cumulative[i + 1] - cumulative[i];
+        const double x = step > 0 ? (q * total - cumulative[i]) / step : 0.0;
+        return std::exp(std::log(rs[i].mass) + x * std::log(rs[i + 1].mass / rs[i].mass));
+      }
+    return rs.back().mass;
+  };
+  return ContributionRange{at(0.5 * (1 - share)), at(0.5), at(0.5 * (1 + share))};
+}
+
 double lightcone_per_amplitude(const MassFunction& s, const std::vector<Response>& rs) {
   if (rs.empty()) throw InputError("counts: no responses");
   if (s.monochromatic()) return rs.front().lightcone_per_beta;

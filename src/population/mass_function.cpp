@@ -120,6 +120,28 @@ class Tabulated final : public MassFunction {
 
 }  // namespace
 
+namespace {
+class CutBelow final : public MassFunction {
+ public:
+  CutBelow(std::unique_ptr<MassFunction> s, double cut) : s_(std::move(s)), cut_(cut) {}
+  double psi(double m) const override { return m < cut_ ? 0.0 : s_->psi(m); }
+  double low() const override { return std::max(cut_, s_->low()); }
+  double high() const override { return std::max(cut_, s_->high()); }
+  double characteristic_mass() const override { return s_->characteristic_mass(); }
+  std::string description() const override {
+    return fmt::format("{}, cut below {:.4g} g", s_->description(), cut_ / units::gram);
+  }
+
+ private:
+  std::unique_ptr<MassFunction> s_;
+  double cut_;
+};
+}  // namespace
+
+std::unique_ptr<MassFunction> cut_below(std::unique_ptr<MassFunction> s, double mass) {
+  return std::make_unique<CutBelow>(std::move(s), mass);
+}
+
 std::unique_ptr<MassFunction> monochromatic(double mass) {
   return std::make_unique<Monochromatic>(mass);
 }

@@ -70,10 +70,14 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
   const bool mono = std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum);
   std::string out = csv_header(
       l, "constraint curves",
-      {"units: masses in g; beta_max = largest allowed energy fraction at formation; f_max = largest allowed f_PBH",
+      {"units: masses in g; beta_max = largest allowed beta, the plain energy fraction in holes at formation; f_max "
+       "= largest allowed f_PBH, the dark-matter fraction the holes would make today had none evaporated",
        mono ? "rows: formation mass of a monochromatic population"
-            : "rows: characteristic mass (and width) of the extended spectrum; beta_max quoted at the characteristic "
-              "mass",
+            : "rows: characteristic mass (and width) of the extended spectrum (lognormal: peak_mass; power_law: "
+              "max_mass; critical_collapse: cutoff_mass; table: the geometric mean of its range); beta_max quoted "
+              "there",
+       mono ? "x-axis: formation mass [g]"
+            : "x-axis: characteristic mass of the spectrum [g] (lognormal: peak mass; power law: upper cutoff)",
        fmt::format("excluded when the expected decays in our past light cone exceed {}",
                    format_real(l.scenario.exclusion.max_decays)),
        fmt::format(
@@ -119,12 +123,15 @@ std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResu
                   fmt::format("low_action_share: the share of P_decay from points with B below minimum_action = {} "
                               "(no semiclassical meaning there)",
                               format_real(l.scenario.tunnelling.minimum_action)),
+                  "dN_dlnM: the spectrum-weighted contribution to N per unit ln M at this formation mass "
+                  "(extended spectra; it integrates to N over ln M); empty for a monochromatic population, whose "
+                  "N all comes from its one mass",
                   "empty cell: none (no crossover, or no decay)"});
   out += "formation_mass_g,formation_time_s,lifetime_s,evaporated,formed_below_floor";
   for (const auto& o : r.outcomes)
     out += fmt::format(
         ",P_decay_{0},hazard_{0},hazard_time_{0},crossover_mass_g_{0},decay_time_s_{0},plasma_T_decay_GeV_{0},"
-        "plasma_T_crossover_GeV_{0},hot_era_share_{0},low_action_share_{0}",
+        "plasma_T_crossover_GeV_{0},hot_era_share_{0},low_action_share_{0},dN_dlnM_{0}",
         tunnelling::name_of(o.prescription));
   out += "\n";
   const std::size_t rows = r.outcomes.empty() ? 0 : r.outcomes.front().scan.size();
@@ -135,7 +142,7 @@ std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResu
                        first.decay.formed_below_floor ? "true" : "false");
     for (const auto& o : r.outcomes) {
       if (i >= o.scan.size()) {
-        out += ",,,,,,,,,";
+        out += ",,,,,,,,,,";
         continue;
       }
       const auto& d = o.scan[i].decay;
@@ -149,6 +156,7 @@ std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResu
                          d.crossover_mass ? cell(d.plasma_at_crossover) : std::string(),
                          cell(share(d.postponed.probability, d.counted.probability)),
                          cell(share(d.probability_semiclassical, d.probability)));
+      out += "," + (i < o.dn_dlnm.size() ? cell(o.dn_dlnm[i]) : std::string());
     }
     out += "\n";
   }
@@ -227,6 +235,21 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["scenario_hash"] = scenario::scenario_hash(l);
   j["title"] = l.scenario.title;
   j["prescriptions"] = nullptr;  // filled below; the verdict leads the file
+  j["definitions"] = {
+      {"N_lightcone", "expected seeded decays in our past light cone"},
+      {"N_hubble",
+       "expected seeded decays per Hubble volume (4 pi/3) H^-3 at the time of decay (mass-weighted for an extended "
+       "spectrum)"},
+      {"excluded", fmt::format("N_lightcone > max_decays = {} (exclusion.max_decays, or -ln(1 - CL) for "
+                               "exclusion.confidence_level: survival e^-N below 1 - CL)",
+                               format_real(l.scenario.exclusion.max_decays))},
+      {"beta", "the plain energy fraction in holes at formation, rho_PBH / rho_total (not a rescaled variant)"},
+      {"f_pbh",
+       "the fraction of the dark matter the holes would make today had none evaporated; for evaporated holes a "
+       "measure of their number, not dark matter that exists"},
+      {"characteristic_mass",
+       "where beta of an extended spectrum is quoted: lognormal peak_mass (the peak of M psi), power_law max_mass, "
+       "critical_collapse cutoff_mass, table the geometric mean of its mass range"}};
   j["scenario"] = scenario::resolved_json(l.resolved);
   j["cautions"] = cautions(l.scenario);
   j["potential"] = r.potential;
@@ -260,6 +283,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
     const double evaporated_share = o.counts.lightcone > 0 ? o.counts.from_evaporated / o.counts.lightcone : 0.0;
     ordered_json p = {{"N_lightcone", o.counts.lightcone}};
     p.update(detail::verdict_json(o, l.scenario.exclusion.max_decays));
+    if (o.range90) p["where_from"] = detail::where_from_json(l.scenario, o);  // extended spectra with decays
     p.update(ordered_json{
         {"N_hubble", o.counts.hubble},
         {"survival_probability", o.survival},
@@ -344,6 +368,7 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
   }
   if (r.no_constraint) t += fmt::format("  no constraint: {}\n", r.no_constraint_reason);
   t += detail::verdict_text(r, l.scenario.exclusion.max_decays);
+  t += detail::where_from_text(l.scenario, r);
   const bool postpone = l.scenario.tunnelling.hot_era == population::HotEra::postpone;
   t += fmt::format("  hot era ({}): N with the hot era {}:", postpone ? "postponed" : "counted",
                    postpone ? "counted instead" : "postponed instead");

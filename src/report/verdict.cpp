@@ -2,7 +2,10 @@
 
 #include <fmt/format.h>
 
+#include <cmath>
+
 #include "ember/core/text.hpp"
+#include "ember/units/constants.hpp"
 
 namespace ember::report::detail {
 
@@ -62,6 +65,38 @@ nlohmann::ordered_json verdict_json(const pipeline::PrescriptionOutcome& o, doub
             {"meaning",
              "the scenario's abundance scaled until N = max_decays, the spectrum's shape kept; beta quoted at the "
              "characteristic mass for an extended spectrum; null: no bound below beta = 1"}}}};
+}
+
+std::optional<double> widths_below_peak(const scenario::Scenario& s, const pipeline::PrescriptionOutcome& o) {
+  const auto* l = std::get_if<scenario::Lognormal>(&s.population.spectrum);
+  if (!l || !o.range90) return std::nullopt;
+  return std::log(l->peak_mass / o.range90->median) / l->width;
+}
+
+nlohmann::ordered_json where_from_json(const scenario::Scenario& s, const pipeline::PrescriptionOutcome& o) {
+  if (!o.range90) return nullptr;
+  const auto below = widths_below_peak(s, o);
+  return {{"range_90_percent_g", {o.range90->low / units::gram, o.range90->high / units::gram}},
+          {"median_g", o.range90->median / units::gram},
+          {"median_widths_below_peak", below ? nlohmann::ordered_json(*below) : nlohmann::ordered_json()},
+          {"rests_on_low_tail", below && *below > tail_widths},
+          {"per_mass", "decay.csv, column dN_dlnM"}};
+}
+
+std::string where_from_text(const scenario::Scenario& s, const pipeline::JobResults& r) {
+  std::string t;
+  for (const auto& o : r.outcomes) {
+    if (!o.range90) continue;
+    t += fmt::format("    {:<14} 90% of N from {:.3g} g to {:.3g} g (median {:.3g} g)\n",
+                     tunnelling::name_of(o.prescription), o.range90->low / units::gram, o.range90->high / units::gram,
+                     o.range90->median / units::gram);
+    if (const auto below = widths_below_peak(s, o); below && *below > tail_widths)
+      t += fmt::format(
+          "      warning: half of N comes from more than {:.1f} widths below the spectrum's peak: the verdict rests on "
+          "the assumed shape far from the peak (population.cut_below shows how much)\n",
+          *below);
+  }
+  return t.empty() ? t : "  where the decays come from (extended spectrum):\n" + t;
 }
 
 }  // namespace ember::report::detail

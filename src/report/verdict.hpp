@@ -7,6 +7,7 @@
 #include <string>
 
 #include "ember/pipeline/job.hpp"
+#include "ember/scenario/scenario.hpp"
 
 namespace ember::report::detail {
 
@@ -21,6 +22,14 @@ struct Margin {
 Margin margin_of(const pipeline::PrescriptionOutcome& o, double max_decays);
 
 std::string verdict_text(const pipeline::JobResults& r, double max_decays);
+
+// Where the decays come from (extended spectra): the masses holding 90% of N, and for a lognormal
+// how far below its peak, in widths, half of N lies. A median more than tail_widths below the
+// peak means the verdict rests on the assumed shape far from where it is known.
+inline constexpr double tail_widths = 2;
+std::optional<double> widths_below_peak(const scenario::Scenario& s, const pipeline::PrescriptionOutcome& o);
+nlohmann::ordered_json where_from_json(const scenario::Scenario& s, const pipeline::PrescriptionOutcome& o);
+std::string where_from_text(const scenario::Scenario& s, const pipeline::JobResults& r);
 nlohmann::ordered_json verdict_json(const pipeline::PrescriptionOutcome& o, double max_decays);
 
 }  // namespace ember::report::detail

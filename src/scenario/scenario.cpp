@@ -1,5 +1,6 @@
 #include "ember/scenario/scenario.hpp"
 
+#include <cmath>
 #include <stdexcept>
 
 #include "ember/core/text.hpp"
@@ -101,6 +102,12 @@ ScanChoices read_scan(const YAML::Node& n) {
                           read_axis(b["alpha_s"], false), numbers(b["lambda6"]), numbers(b["lambda8"])}};
 }
 
+// N > max_decays; a confidence level CL is the same rule at max_decays = -ln(1 - CL) (e^-N < 1 - CL).
+ExclusionRule exclusion_rule(const YAML::Node& n) {
+  if (n["confidence_level"]) return ExclusionRule{-std::log1p(-num(n["confidence_level"]))};
+  return ExclusionRule{num(n["max_decays"])};
+}
+
 }  // namespace
 
 Scenario read_scenario(const YAML::Node& r) {
@@ -108,7 +115,8 @@ Scenario read_scenario(const YAML::Node& r) {
                    out = r["output"];
   return Scenario{
       r["title"].Scalar(),
-      Population{read_spectrum(pop["spectrum"]), read_abundance(pop["abundance"]), num(pop["collapse_fraction"])},
+      Population{read_spectrum(pop["spectrum"]), read_abundance(pop["abundance"]), num(pop["collapse_fraction"]),
+                 pop["cut_below"] ? std::optional<double>(mass(pop["cut_below"])) : std::nullopt},
       StandardModelInputs{
           {mass(sm["top_mass"]), mass(sm["higgs_mass"]), num(sm["alpha_s"]), mass(sm["w_mass"]), whole(sm["loops"])},
           read_potential(sm["potential"])},
@@ -117,7 +125,7 @@ Scenario read_scenario(const YAML::Node& r) {
       CosmologyInputs{num(cos["hubble"]), num(cos["omega_b_h2"]), num(cos["omega_cdm_h2"]),
                       qty(cos["cmb_temperature"], units::temperature), num(cos["n_eff"])},
       read_scan(r["scan"]),
-      ExclusionRule{num(r["exclusion"]["max_decays"])},
+      exclusion_rule(r["exclusion"]),
       OutputChoices{out["directory"].Scalar(), words(out["files"]), words(out["plot_formats"])},
       cos["dof_table"] ? std::optional<std::filesystem::path>(cos["dof_table"].Scalar()) : std::nullopt,
   };

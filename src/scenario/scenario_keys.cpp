@@ -78,10 +78,15 @@ Key population() {
   Key abundance = required(choice("abundance", "how many holes form", "measure",
                                   {
                                       {"beta",
-                                       "energy fraction in holes at formation",
+                                       "beta: the plain energy fraction in holes at formation, rho_PBH / rho_total "
+                                       "(not a rescaled variant); for an extended spectrum quoted at its "
+                                       "characteristic mass (lognormal: peak_mass; power_law: max_mass; "
+                                       "critical_collapse: cutoff_mass; table: the geometric mean of its mass range)",
                                        {required(number("value", "beta", std::nullopt, between(0, 1)), "1e-20")}},
                                       {"f_pbh",
-                                       "fraction of dark matter the holes would make today had none evaporated",
+                                       "f_PBH: the fraction of the dark matter the holes would make today had none "
+                                       "evaporated (for evaporated holes a bookkeeping measure of their number, not "
+                                       "dark matter that exists)",
                                        {required(number("value", "f_PBH", std::nullopt, at_least(0)), "1e-3")}},
                                       {"lightcone_count",
                                        "number of holes formed inside our past light cone",
@@ -92,7 +97,12 @@ Key population() {
   return section("population", "the primordial black holes",
                  {spectrum, abundance,
                   number("collapse_fraction", "gamma: formation mass over the horizon mass",
-                         format_real(population::ResponseContext{}.collapse_fraction), above_up_to(0, 1))});
+                         format_real(population::ResponseContext{}.collapse_fraction), above_up_to(0, 1)),
+                  with_example(quantity("cut_below",
+                                        "extended spectra: no holes below this mass (not renormalised), to show how "
+                                        "much of the verdict rests on the low tail; none by default",
+                                        units::mass, "g", std::nullopt, above(0)),
+                               "1e8 g")});
 }
 
 std::string gev(double value) {
@@ -250,7 +260,14 @@ Key scan() {
 Key exclusion() {
   return section(
       "exclusion", "when a scenario counts as excluded",
-      {number("max_decays", "excluded when the expected decays in our past light cone exceed this", "1", above(0))});
+      {number("max_decays",
+              "excluded when N, the expected decays in our past light cone, exceeds this (N > max_decays)", "1",
+              above(0)),
+       with_example(number("confidence_level",
+                           "instead of max_decays: excluded when the survival probability e^-N falls below 1 - CL, "
+                           "i.e. N > -ln(1 - CL); none by default",
+                           std::nullopt, between(0.01, 0.9999999)),
+                    "0.95")});
 }
 
 Key output() {

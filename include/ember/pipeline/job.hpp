@@ -78,6 +78,8 @@ struct PrescriptionOutcome {
   bool excluded = false;
   std::vector<CurveRow> curve;
   std::vector<population::Response> scan;  // monochromatic responses at the scan masses (decay.csv)
+  std::vector<double> dn_dlnm;             // extended spectra: dN/d ln M at each scan response (decay.csv)
+  std::optional<population::ContributionRange> range90;  // the masses holding the central 90% of N
   std::string table_summary;
   std::vector<double> plot_ratio;     // Gamma_D / Gamma_H at JobResults::plot_masses
   std::vector<bool> plot_low_action;  // B below tunnelling.minimum_action there

@@ -69,6 +69,19 @@ struct Counts {
 Counts counts_for(const MassFunction& spectrum, AbundanceMeasure measure, double value,
                   const std::vector<Response>& responses);
 
+// Where the decays come from: dN/d ln M = f_PBH M psi(M) (N/beta)(M) / (f/beta)(M), per response
+// (extended spectra; the integrand of counts_for, so it integrates to N over ln M).
+std::vector<double> contributions(const MassFunction& spectrum, double f_pbh, const std::vector<Response>& responses);
+
+// The masses between which the given share of N lies, centred (`share` = 0.9: from the 5% point
+// of the cumulative count to the 95% point), and the median; linear interpolation in ln M of the
+// trapezoidal cumulative. None when N is zero.
+struct ContributionRange {
+  double low = 0, median = 0, high = 0;  // GeV
+};
+std::optional<ContributionRange> contribution_range(const std::vector<Response>& responses,
+                                                    const std::vector<double>& dn_dlnm, double share);
+
 // N per unit of the amplitude (beta for a monochromatic spectrum, f_PBH otherwise).
 double lightcone_per_amplitude(const MassFunction& spectrum, const std::vector<Response>& responses);
 

@@ -37,6 +37,9 @@ std::unique_ptr<MassFunction> power_law(double min_mass, double max_mass, double
 std::unique_ptr<MassFunction> critical_collapse(double cutoff_mass, double exponent);
 // mass_unit: g, kg, Msun, Mpl or GeV. Throws InputError naming the file and line.
 std::unique_ptr<MassFunction> tabulated(const std::string& file, const std::string& mass_unit);
+// The spectrum with no holes below `mass` (GeV), not renormalised: the holes cut away simply do
+// not exist, so N falls by their share. It shows how much of a verdict rests on the low tail.
+std::unique_ptr<MassFunction> cut_below(std::unique_ptr<MassFunction> spectrum, double mass);
 // The same from the file's text; `label` names it in messages.
 std::unique_ptr<MassFunction> tabulated_text(std::string_view text, const std::string& label,
                                              const std::string& mass_unit);

@@ -51,6 +51,7 @@ struct Population {
   Spectrum spectrum;
   Abundance abundance;
   double collapse_fraction;
+  std::optional<double> cut_below;  // GeV: no holes below this mass (extended spectra)
 };
 
 // --- Standard Model inputs and the potential ---------------------------------------------------
