@@ -2,10 +2,13 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <functional>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/higgs/fubini.hpp"
 #include "ember/higgs/stability.hpp"
+#include "ember/units/constants.hpp"
 #include "support.hpp"
 
 using namespace ember::higgs;
@@ -61,9 +64,51 @@ TEST_CASE("instability scale, lambda_min and the critical top mass") {
   CHECK(r.lambda_min_scale > 1e17);
   CHECK(r.lambda_min_scale < 1e18);
   CHECK(r.verdict == Verdict::metastable);
-  // Absolute stability needs M_t below 171.3 GeV at M_h = 125.15 GeV (Buttazzo et al. 2013;
-  // from memory); within 0.6 GeV.
-  CHECK(std::abs(critical_top_mass(buttazzo()) - 171.3) < 0.6);
+}
+
+TEST_CASE("the critical top mass by both criteria, against Buttazzo et al. 2013") {
+  const Inputs b = buttazzo();
+  Inputs two = b;
+  two.loops = 2;
+  const double ms = critical_top_mass(b), effective = critical_top_mass_effective(b, {});
+  const double with_cw = critical_top_mass_effective(b, {true, 0, 0});
+  // Without Coleman-Weinberg terms and operators, 4V/h^4 = e^{4 Gamma} lambda(h), of lambda's sign,
+  // so the two criteria find the same top mass (derived), to the root finder's 1e-6 GeV.
+  CHECK(std::abs(effective - ms) < 1e-5);
+  // The one-loop terms move the criterion by what they add to lambda_eff at its minimum, over the
+  // slope of that minimum with M_t (derived, linearised; 10% for the curvature).
+  const auto quartic_min = [&](double mt, bool cw) {
+    Inputs in = b;
+    in.top_mass = mt;
+    return analyse_stability(StandardModelPotential(std::make_shared<const Running>(in), {cw, 0, 0})).quartic_min;
+  };
+  const double slope = (quartic_min(ms + 0.1, true) - quartic_min(ms - 0.1, true)) / 0.2;
+  CHECK(close(with_cw - ms, -quartic_min(ms, true) / slope, 0.1));
+  // Buttazzo et al., JHEP 12 (2013) 089: the potential is absolutely stable up to M_Pl for
+  // M_t < 171.53 GeV at M_h = 125.15 GeV, alpha_s = 0.1184 (from memory), with a theory error of
+  // 0.15 GeV (from memory) at their order: three-loop running, two-loop effective potential.
+  // Ours lacks the three-loop terms beyond pure QCD; the three-loop QCD terms we do run move the
+  // critical mass by d3 (measured here), and the missing ones are allowed twice that (common
+  // practice: an order's missing terms estimated by its included ones). Our effective potential
+  // stops at one loop; the missing loop is allowed the one-loop shift itself.
+  const double d3 = std::abs(ms - critical_top_mass(two)), d_cw = std::abs(with_cw - ms);
+  const double tolerance = 0.15 + 2 * d3 + d_cw;
+  CAPTURE(ms);
+  CAPTURE(with_cw);
+  CAPTURE(tolerance);
+  CHECK(d3 > 0.05);  // the three-loop QCD terms matter at this level, or the tolerance means nothing
+  CHECK(std::abs(with_cw - 171.53) < tolerance);
+  CHECK(std::abs(ms - 171.53) < tolerance);
+}
+
+TEST_CASE("loop orders are named for what they run") {
+  // beta.cpp: order 3 adds only the pure-QCD three-loop terms of g3 and yt.
+  CHECK(loop_order_name(3) == "two-loop running plus three-loop QCD terms in g3 and yt");
+  CHECK(loop_order_name(2) == "two-loop running");
+  CHECK_THROWS_AS(loop_order_name(4), ember::InputError);
+  const StandardModelPotential sm(std::make_shared<const Running>(buttazzo()));
+  CHECK(sm.description().find(loop_order_name(3)) != std::string::npos);
+  CHECK(sm.running().summary().message.find(loop_order_name(3)) != std::string::npos);
 }
 
 TEST_CASE("the verdict follows the top mass and the Planck-suppressed operators") {
@@ -105,6 +150,77 @@ TEST_CASE("the Fubini bounce: 8 pi^2 / (3 |lambda|), analytically and numericall
       CHECK(close(b.action.value, fubini_action(l), 1e-8));
       CHECK(std::abs(b.action.value - fubini_action(l)) <= b.action.error + 1e-12 * fubini_action(l));
     }
+}
+
+TEST_CASE("the operators' action on the Fubini profile: closed form against quadrature") {
+  // Derived: int d^4x V_ops on phi = sqrt(8/|lambda|) R/(r^2 + R^2), with r = R tan(theta) so that
+  // d^4x = 2 pi^2 R^4 tan^3 sec^2 d theta and phi = sqrt(8/|lambda|) cos^2(theta)/R: a smooth
+  // integrand on [0, pi/2], which 16 Gauss-Kronrod pieces integrate to rounding.
+  const double mbar = ember::units::reduced_planck_mass, pi = ember::units::pi;
+  const auto integral = [&](const std::function<double(double, double)>& density, double lambda_abs, double r_size) {
+    const double c = std::sqrt(8 / lambda_abs);
+    const auto f = [&](double th) {
+      const double co = std::cos(th), si = std::sin(th), r = r_size * si / co;
+      const double phi = c * co * co / r_size, dphi = -c * 2 * r * r_size / std::pow(r * r + r_size * r_size, 2);
+      return 2 * pi * pi * std::pow(r_size, 4) * si * si * si / (co * co * co * co * co) * density(phi, dphi);
+    };
+    double sum = 0;
+    for (int k = 0; k < 16; ++k) sum += ember::gauss_kronrod21(f, pi / 2 * k / 16, pi / 2 * (k + 1) / 16);
+    return sum;
+  };
+  for (double lambda_abs : {0.0103, 0.05})
+    for (double mu : {1e16, 5e17}) {
+      CAPTURE(lambda_abs);
+      CAPTURE(mu);
+      // The normalisation first: kinetic plus quartic gives Fubini's action.
+      const double s_quartic =
+          integral([&](double phi, double dphi) { return 0.5 * dphi * dphi - lambda_abs * std::pow(phi, 4) / 4; },
+                   lambda_abs, 1 / mu);
+      CHECK(close(s_quartic, fubini_action(lambda_abs), 1e-12));
+      const double l6 = 0.7, l8 = -0.3;
+      const double ops = integral(
+          [&](double phi, double) {
+            return l6 * std::pow(phi, 6) / (6 * mbar * mbar) + l8 * std::pow(phi, 8) / (8 * std::pow(mbar, 4));
+          },
+          lambda_abs, 1 / mu);
+      CHECK(close(operator_action(lambda_abs, mu, l6, l8), ops, 1e-12));
+    }
+}
+
+TEST_CASE("the unseeded rate moves with the operators by their action on the bounce") {
+  // Derived: with lambda6 the Fubini family's S(mu) = 8 pi^2/(3|lambda|) + (64 pi^2/15) lambda6
+  // mu^2/(Mbar^2 |lambda|^3) (the closed form checked above, retyped), and
+  // log10 N = max_mu [4 ln(mu/H0) - S]/ln 10, here on a fine grid of its own. The former estimate
+  // took the operator at h = mu, q = lambda + (2/3) lambda6 mu^2/Mbar^2 in 8 pi^2/(3|q|): it misses
+  // the field's reach of sqrt(8/|lambda|) mu at the bounce centre, and moves N about ten times less.
+  const auto run = std::make_shared<const Running>(default_inputs());
+  const double h0 = StabilityOptions{}.hubble_rate, mbar2 = std::pow(ember::units::reduced_planck_mass, 2);
+  const double pi2 = ember::units::pi * ember::units::pi;
+  const auto grid_max = [&](const std::function<double(double, double)>& action) {
+    double best = -INFINITY;
+    for (double t = std::log(run->mu_min()); t <= std::log(ember::units::planck_mass); t += 2e-4) {
+      const double mu = std::exp(t), l = run->lambda(mu);
+      if (l < 0) best = std::max(best, (4 * std::log(mu / h0) - action(-l, mu)) / std::log(10.0));
+    }
+    return best;
+  };
+  const double base = *report(default_inputs()).log10_expected_decays;
+  for (double l6 : {0.001, 0.01}) {
+    CAPTURE(l6);
+    const StabilityReport r = report(default_inputs(), {false, l6, 0});
+    REQUIRE(r.log10_expected_decays);
+    const double on_bounce = grid_max(
+        [&](double a, double mu) { return 8 * pi2 / (3 * a) + 64 * pi2 / 15 * l6 * mu * mu / (mbar2 * a * a * a); });
+    const double at_mu = grid_max([&](double a, double mu) {
+      const double q = -a + 2.0 / 3 * l6 * mu * mu / mbar2;
+      return q < 0 ? 8 * pi2 / (3 * -q) : INFINITY;
+    });
+    CHECK(std::abs(*r.log10_expected_decays - on_bounce) < 1e-3);
+    CHECK(r.operators_first_order);
+    CHECK(r.unseeded_method == UnseededMethod::fubini_first_order);
+    // The on-bounce shift is several times the former one (measured: 13x and 6.6x).
+    CHECK(base - *r.log10_expected_decays > 5 * (base - at_mu));
+  }
 }
 
 TEST_CASE("one-loop running matches the analytic solution") {

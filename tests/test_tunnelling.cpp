@@ -10,12 +10,14 @@
 #include <iterator>
 
 #include "ember/core/errors.hpp"
+#include "ember/higgs/fubini.hpp"
 #include "ember/higgs/stability.hpp"
 #include "ember/tunnelling/action_cache.hpp"
 #include "ember/tunnelling/action_table.hpp"
 #include "ember/tunnelling/flat_bounce.hpp"
 #include "ember/tunnelling/rate.hpp"
 #include "ember/tunnelling/thin_wall.hpp"
+#include "ember/tunnelling/unseeded.hpp"
 #include "support.hpp"
 
 using namespace ember;
@@ -536,4 +538,120 @@ TEST_CASE("cached B(M) tables: a hit is bit for bit, a change misses, damage is 
   const ActionTable back = ActionTable::from_text(plain.to_text());
   CHECK(back.at(1e5 * m_pl).flags.no_decay == plain.at(1e5 * m_pl).flags.no_decay);
   std::filesystem::remove_all(dir);
+}
+
+TEST_CASE("numerical O(4) bounces with both operators against their first-order action") {
+  // A frozen quartic with lambda6 < 0 < lambda8 has a true bounce of finite size (derived): on the
+  // Fubini family S(R) = S_F - a/R^2 + b/R^4 (higgs::operator_action, a = (64 pi^2/15)|lambda6|/
+  // (Mbar^2 |lambda|^3), b = (256 pi^2/21) lambda8/(Mbar^4 |lambda|^4)) is stationary at
+  // R^2 = 2b/a, where Delta S = -a^2/(4b) and phi(0) = sqrt(8/|lambda|)/R. Delta S tests a^2/b and
+  // phi(0) tests a/b, so both coefficients (c6 = -a, c8 = b below). The bounce is stationary, so first order is off at
+  // second order: (Delta S_num/Delta S - 1)/(Delta S/S_F) is the same at every lambda6 up to terms
+  // of order Delta S/S_F (derived), and it must stay below 1, the coefficient the first-order error
+  // estimate uses (higgs::StabilityOptions). A tiny mass term, 2e-18 Mbar^2, gives the false vacuum
+  // the barrier the landscape scan needs; it moves S by about S (m R)^2 ln(1/mR) < 1e-8 (derived).
+  const double mbar = units::reduced_planck_mass, lambda_abs = 0.01, lambda8 = 1;
+  const double s_f = higgs::fubini_action(lambda_abs);
+  std::vector<double> coefficients;
+  for (double lambda6 : {-0.004, -0.015, -0.027, -0.05}) {
+    const higgs::PolynomialPotential v(mbar, {0, 0, 1e-18, 0, -lambda_abs / 4, 0, lambda6 / 6, 0, lambda8 / 8});
+    // S(R) - S_F = c6/R^2 + c8/R^4: the operators' action at mu = 1/R = 1 GeV gives c6 and c8.
+    const double c6 = higgs::operator_action(lambda_abs, 1.0, lambda6, 0),
+                 c8 = higgs::operator_action(lambda_abs, 1.0, 0, lambda8);
+    const double r2 = -2 * c8 / c6, first = -c6 * c6 / (4 * c8), phi0 = std::sqrt(8 / lambda_abs / r2);
+    const FlatBounce fb = solve_flat_bounce(v, {});
+    const double ratio = first / s_f, delta = fb.action.value - s_f;
+    CAPTURE(lambda6);
+    CAPTURE(ratio);
+    CHECK(fb.action.error < 1e-3 * std::abs(delta));
+    const double coefficient = (delta / first - 1) / ratio;
+    CHECK(coefficient > 0);  // first order overstates |Delta S|
+    CHECK(coefficient < 1);
+    CHECK(std::abs(fb.center_field / phi0 - 1) < std::abs(ratio) + 1e-4);
+    coefficients.push_back(coefficient);
+  }
+  for (double c : coefficients) CHECK(close(c, coefficients.front(), 0.1));
+}
+
+TEST_CASE("the Standard Model's numerical bounce: the Fubini family without operators, first order with small ones") {
+  const auto run = std::make_shared<const higgs::Running>(higgs::default_inputs());
+  const higgs::StandardModelPotential plain(run);
+  const higgs::StabilityReport family = higgs::analyse_stability(plain);
+  const double kappa = std::sqrt(8 / std::abs(family.lambda_min));
+  const UnseededBounce u0 = solve_unseeded_bounce(plain, kappa);
+  // Without operators the family's action is Fubini's at lambda's minimum; the numerical bounce
+  // also feels lambda's running across its profile, which at the minimum enters at second order
+  // in ln(h/mu) (derived): within 0.2% (measured 0.07%).
+  CHECK(close(u0.bounce.action.value, family.bounce_action, 2e-3));
+  // Small lambda6: the bounce is stationary, so Delta S = the operator integrated over the
+  // lambda6 = 0 bounce, which is the Fubini profile of scale mu_b with lambda_min (derived). The
+  // symmetric difference of +-lambda6 removes the second order. Within 2%: the lambda6 = 0
+  // profile is Fubini's only up to the running across it (measured 0.8%).
+  for (double l6 : {1e-8, 3e-8}) {
+    CAPTURE(l6);
+    const UnseededBounce up = solve_unseeded_bounce(higgs::StandardModelPotential(run, {false, l6, 0}), kappa);
+    const UnseededBounce down = solve_unseeded_bounce(higgs::StandardModelPotential(run, {false, -l6, 0}), kappa);
+    const double numerical = (up.bounce.action.value - down.bounce.action.value) / 2;
+    const double first = higgs::operator_action(std::abs(family.lambda_min), u0.scale, l6, 0);
+    CHECK(up.bounce.action.error + down.bounce.action.error < 0.05 * first);
+    CHECK(close(numerical, first, 0.02));
+  }
+}
+
+TEST_CASE("the unseeded decay: first order, the numerical bounce beyond it, the held share without a bounce") {
+  const auto run = std::make_shared<const higgs::Running>(higgs::default_inputs());
+  const double h0 = higgs::StabilityOptions{}.hubble_rate;
+  const auto check_no_seed = [&](const higgs::StandardModelPotential& sm, const higgs::StabilityReport& r) {
+    // no_seed carries the same S, and mu_b^4 per volume (derived from both definitions).
+    TunnellingSetup s;
+    s.potential = s.standard_model = &sm;
+    const ActionPoint a = action_at(Prescription::no_seed, s, 1e5 * m_pl);
+    CHECK(a.action.value == r.bounce_action);
+    const double r_h = 2 * units::newton_G * 1e5 * m_pl;
+    CHECK(close(*a.own_prefactor, 4 * pi * r_h * r_h * r_h / 3 * std::pow(r.bounce_scale, 4), 1e-12));
+    // log10 N = [4 ln(mu_b/H0) - S]/ln 10 (the header's formula).
+    CHECK(
+        close(*r.log10_expected_decays, (4 * std::log(r.bounce_scale / h0) - r.bounce_action) / std::log(10.0), 1e-10));
+  };
+  // lambda6 = 0.001: first order holds (Delta S/S = 0.6%); the higgs module's answer stands.
+  const higgs::StandardModelPotential small(run, {false, 0.001, 0});
+  const higgs::StabilityReport a = analyse_unseeded(small);
+  CHECK(a.unseeded_method == higgs::UnseededMethod::fubini_first_order);
+  CHECK(*a.log10_expected_decays == *higgs::analyse_stability(small).log10_expected_decays);
+  check_no_seed(small, a);
+  // lambda6 = 10: first order fails (Delta S/S = 2.4% > 2%); the numerical bounce takes over, and
+  // the positive operator raises S above the operator-free bounce.
+  const higgs::StandardModelPotential large(run, {false, 10, 0});
+  const higgs::StabilityReport b = analyse_unseeded(large);
+  CHECK_FALSE(b.operators_first_order);
+  CHECK(b.unseeded_method == higgs::UnseededMethod::numerical_bounce);
+  CHECK(b.bounce_action > higgs::analyse_stability(higgs::StandardModelPotential(run)).bounce_action);
+  CHECK(b.prescription.find("numerical O(4) bounce") != std::string::npos);
+  check_no_seed(large, b);
+  // lambda6 = -0.01: V falls as -h^6 at large h, supercritical in 4D: no bounce of the full
+  // potential exists (derived: no stationary size). The family with the operators' share held at
+  // -2% of S then bounds N from below: above the operator-free N.
+  const higgs::StandardModelPotential negative(run, {false, -0.01, 0});
+  const higgs::StabilityReport c = analyse_unseeded(negative);
+  CHECK(c.unseeded_method == higgs::UnseededMethod::fubini_first_order);
+  CHECK(c.bounce_at_scan_edge);
+  CHECK(c.prescription.find("lower bound") != std::string::npos);
+  CHECK(*c.log10_expected_decays > *higgs::analyse_stability(higgs::StandardModelPotential(run)).log10_expected_decays);
+  check_no_seed(negative, c);
+  // Near-critical inputs (lambda_min = -0.0013) with lambda6 = 1: the bounce field sqrt(8/|lambda|)
+  // mu is 79 mu, where h^6/Mbar^2 lifts the whole Fubini-scale potential: no bounce there (derived
+  // from the sizes: (2/3)(h/Mbar)^2 >> |lambda|). The held share then bounds N from above: below
+  // the operator-free N.
+  higgs::Inputs near = higgs::default_inputs();
+  near.top_mass = 171.99;
+  near.higgs_mass = 125.42;
+  near.alpha_s = 0.1198;
+  const auto near_run = std::make_shared<const higgs::Running>(near);
+  const higgs::StandardModelPotential lifted(near_run, {false, 1, 0});
+  const higgs::StabilityReport d = analyse_unseeded(lifted);
+  REQUIRE(d.log10_expected_decays);
+  CHECK(d.prescription.find("upper bound") != std::string::npos);
+  CHECK(*d.log10_expected_decays <
+        *higgs::analyse_stability(higgs::StandardModelPotential(near_run)).log10_expected_decays);
+  check_no_seed(lifted, d);
 }

@@ -266,9 +266,9 @@ Command add_bounce(CLI::App& parent) {
   app->add_option("--mt", o->inputs.top_mass, "top-quark pole mass in GeV");
   app->add_option("--mh", o->inputs.higgs_mass, "Higgs-boson pole mass in GeV");
   app->add_option("--alphas", o->inputs.alpha_s, "alpha_s(M_Z)");
-  app->add_option("--loops", o->inputs.loops, "loop order of the running: 1, 2 or 3");
-  app->add_option("--lambda6", o->lambda6, "coefficient of h^6/(6 Mbar^2)");
-  app->add_option("--lambda8", o->lambda8, "coefficient of h^8/(8 Mbar^4)");
+  app->add_option("--loops", o->inputs.loops, "renormalisation-group running: " + higgs::loop_order_choices());
+  app->add_option("--lambda6", o->lambda6, "coefficient of h^6/(6 Mbar^2), Mbar the reduced Planck mass");
+  app->add_option("--lambda8", o->lambda8, "coefficient of h^8/(8 Mbar^4), Mbar the reduced Planck mass");
   app->add_flag("--coleman-weinberg", o->coleman_weinberg, "add the one-loop top, W and Z terms");
   app->add_option("--scale", o->scale, "--model polynomial: the field scale, e.g. \"1e10 GeV\"");
   app->add_option("--coefficients", o->coefficients,

@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <functional>
 #include <iostream>
 #include <optional>
 
@@ -13,6 +14,7 @@
 #include "ember/core/finite.hpp"
 #include "ember/core/text.hpp"
 #include "ember/higgs/stability.hpp"
+#include "ember/tunnelling/unseeded.hpp"
 
 namespace ember::cli {
 
@@ -64,11 +66,22 @@ struct HiggsFacts {
   std::shared_ptr<const Running> running;
   StandardModelPotential pot;
   StabilityReport r;
-  std::optional<double> critical;
+  std::optional<double> critical, critical_effective;  // MS-bar and effective-potential criteria
   std::vector<std::string> warnings;
   Couplings c;
   double at = 0;
 };
+
+// One critical top mass, or a warning saying why there is none.
+std::optional<double> critical_or_warning(const std::function<double()>& solve, const char* criterion,
+                                          std::vector<std::string>& warnings) {
+  try {
+    return solve();
+  } catch (const NumericalError& e) {
+    warnings.push_back(fmt::format("no critical top mass ({}): {}", criterion, e.what()));
+    return std::nullopt;
+  }
+}
 
 HiggsFacts compute(const HiggsOptions& o) {
   o.inputs.validate();
@@ -77,29 +90,46 @@ HiggsFacts compute(const HiggsOptions& o) {
   if (at < running->mu_min() || at > running->mu_max())
     throw InputError(fmt::format("--at {}: outside the running's range; expected between M_t and {:.3g} GeV", o.at,
                                  running->mu_max()));
-  StandardModelPotential pot(running, {o.coleman_weinberg, o.lambda6, o.lambda8});
-  StabilityReport r = analyse_stability(pot);
-  std::optional<double> critical;
+  const StandardModelOptions so{o.coleman_weinberg, o.lambda6, o.lambda8};
+  StandardModelPotential pot(running, so);
+  // The operators on the bounce: first order on the Fubini family, the numerical bounce beyond.
+  StabilityReport r = tunnelling::analyse_unseeded(pot);
   std::vector<std::string> warnings = fit_warnings(o.inputs);
-  try {
-    critical = critical_top_mass(o.inputs);
-  } catch (const NumericalError& e) {
-    warnings.push_back(std::string("no critical top mass: ") + e.what());
-  }
-  return {running, std::move(pot), std::move(r), critical, std::move(warnings), couplings_at_top(o.inputs), at};
+  const auto critical = critical_or_warning([&] { return critical_top_mass(o.inputs); }, "MS-bar", warnings);
+  const auto effective =
+      critical_or_warning([&] { return critical_top_mass_effective(o.inputs, so); }, "effective potential", warnings);
+  return {running, std::move(pot), std::move(r), critical, effective, std::move(warnings), couplings_at_top(o.inputs),
+          at};
+}
+
+nlohmann::ordered_json unseeded_json(const StabilityReport& r) {
+  const bool bounce = r.log10_expected_decays.has_value();
+  const auto if_bounce = [&](double v) { return bounce ? nlohmann::ordered_json(v) : nullptr; };
+  return {{"log10_expected_decays", optional_json(r.log10_expected_decays)},
+          {"log10_decay_probability", optional_json(decay_probability(r.log10_expected_decays))},
+          {"unseeded_method", name_of(r.unseeded_method)},
+          {"bounce_scale_GeV", if_bounce(r.bounce_scale)},
+          {"bounce_at_scan_edge", r.bounce_at_scan_edge},
+          {"bounce_action", if_bounce(r.bounce_action)},
+          {"bounce_action_error", if_bounce(r.bounce_action_error)},
+          {"operator_action_first_order", if_bounce(r.operator_action)},
+          {"operator_fraction_first_order", if_bounce(r.operator_fraction)},
+          {"operators_first_order", r.operators_first_order}};
 }
 
 nlohmann::ordered_json facts_json(const HiggsOptions& o, const HiggsFacts& f) {
   const StabilityReport& r = f.r;
-  return {
+  nlohmann::ordered_json j = {
       {"inputs",
        {{"top_mass_GeV", o.inputs.top_mass},
         {"higgs_mass_GeV", o.inputs.higgs_mass},
         {"alpha_s", o.inputs.alpha_s},
         {"w_mass_GeV", o.inputs.w_mass},
         {"loops", o.inputs.loops},
+        {"running", loop_order_name(o.inputs.loops)},
         {"lambda6", o.lambda6},
         {"lambda8", o.lambda8},
+        {"operators", "lambda6 h^6/(6 Mbar^2) + lambda8 h^8/(8 Mbar^4), Mbar the reduced Planck mass"},
         {"coleman_weinberg", o.coleman_weinberg}}},
       {"couplings_at_top", {{"g1", f.c.g1}, {"g2", f.c.g2}, {"g3", f.c.g3}, {"yt", f.c.yt}, {"lambda", f.c.lambda}}},
       {"at_GeV", f.at},
@@ -110,15 +140,41 @@ nlohmann::ordered_json facts_json(const HiggsOptions& o, const HiggsFacts& f) {
       {"lambda_min_scale_GeV", r.lambda_min_scale},
       {"lambda_eff_min", r.lambda_eff_min},
       {"lambda_eff_min_scale_GeV", r.lambda_eff_min_scale},
-      {"verdict", name_of(r.verdict)},
-      {"log10_expected_decays", optional_json(r.log10_expected_decays)},
-      {"log10_decay_probability", optional_json(decay_probability(r.log10_expected_decays))},
-      {"bounce_scale_GeV", r.log10_expected_decays ? nlohmann::ordered_json(r.bounce_scale) : nullptr},
-      {"bounce_at_scan_edge", r.bounce_at_scan_edge},
-      {"critical_top_mass_GeV", optional_json(f.critical)},
-      {"prescription", r.prescription},
-      {"lambda_eff_interpolation_error", f.pot.interpolation_error()},
-      {"warnings", f.warnings}};
+      {"quartic_min", r.quartic_min},
+      {"quartic_min_scale_GeV", r.quartic_min_scale},
+      {"verdict", name_of(r.verdict)}};
+  j.update(unseeded_json(r));
+  j["critical_top_mass_GeV"] = optional_json(f.critical);
+  j["critical_top_mass_effective_GeV"] = optional_json(f.critical_effective);
+  j["prescription"] = r.prescription;
+  j["lambda_eff_interpolation_error"] = f.pot.interpolation_error();
+  j["warnings"] = f.warnings;
+  return j;
+}
+
+std::string unseeded_text(const StabilityReport& r) {
+  if (!r.log10_expected_decays)
+    return "log10 N (unseeded decays expected in the past light cone)  none: no flat-space bounce\n";
+  std::string text = fmt::format(
+      "log10 N (unseeded decays expected in the past light cone)  {:.1f} (bounce at mu = {:.3g} GeV{})\n",
+      *r.log10_expected_decays, r.bounce_scale,
+      r.bounce_at_scan_edge ? ", a lower bound: at the end of the scanned range or with the operators' share held"
+                            : "");
+  text += fmt::format("bounce action S                      {:.2f} +- {:.2g} ({})\n", r.bounce_action,
+                      r.bounce_action_error, name_of(r.unseeded_method));
+  if (r.operator_action != 0)
+    text += fmt::format("operators on the bounce (1st order)  Delta S = {:+.2f}, {:.2g} of the Fubini action{}\n",
+                        r.operator_action, r.operator_fraction,
+                        r.operators_first_order ? ""
+                        : r.unseeded_method == UnseededMethod::numerical_bounce
+                            ? ": first order fails, so S is the numerical bounce's"
+                            : ": first order fails, its share is held at the bound");
+  return text;
+}
+
+std::string critical_text(const std::optional<double>& m, const char* criterion) {
+  return m ? fmt::format("critical top mass, {}  {:.3f} GeV\n", criterion, *m)
+           : fmt::format("critical top mass, {}  not found in [160, 185] GeV\n", criterion);
 }
 
 std::string facts_text(const HiggsFacts& f) {
@@ -137,16 +193,12 @@ std::string facts_text(const HiggsFacts& f) {
   text += fmt::format("lambda_min (MS-bar, M_t to M_Pl)     {:+.5f} at {:.3g} GeV\n", r.lambda_min, r.lambda_min_scale);
   text += fmt::format("lambda_eff minimum                   {:+.5f} at {:.3g} GeV\n", r.lambda_eff_min,
                       r.lambda_eff_min_scale);
+  text +=
+      fmt::format("4V/h^4 minimum (the full potential)  {:+.5f} at {:.3g} GeV\n", r.quartic_min, r.quartic_min_scale);
   text += fmt::format("verdict                              {}\n", name_of(r.verdict));
-  text += r.log10_expected_decays
-              ? fmt::format(
-                    "log10 N (unseeded decays expected in the past light cone)  {:.1f} (bounce at mu = "
-                    "{:.3g} GeV{})\n",
-                    *r.log10_expected_decays, r.bounce_scale,
-                    r.bounce_at_scan_edge ? ", at the end of the scanned range: a lower bound" : "")
-              : "log10 N (unseeded decays expected in the past light cone)  none: no flat-space bounce\n";
-  text += f.critical ? fmt::format("critical top mass (lambda_min = 0)   {:.3f} GeV\n", *f.critical)
-                     : "critical top mass                    not found in [160, 185] GeV\n";
+  text += unseeded_text(r);
+  text += critical_text(f.critical, "MS-bar criterion (lambda_min = 0, mu in [M_t, M_Pl])      ");
+  text += critical_text(f.critical_effective, "effective-potential criterion (min 4V/h^4 = 0, h to mu_max)");
   text += fmt::format("decay prescription: {}\n", r.prescription);
   return text;
 }
@@ -176,16 +228,17 @@ Command add_higgs(CLI::App& parent) {
   CLI::App* app = parent.add_subcommand(
       "higgs",
       "Higgs potential at high field: RG running, instability scale, lambda_min, stability verdict, unseeded "
-      "decay probability, critical top mass.");
+      "decay probability (Planck-suppressed operators on the bounce), critical top mass by the MS-bar and the "
+      "effective-potential criteria.");
   app->add_option("--mt", o->inputs.top_mass,
                   "top-quark pole mass in GeV (default: PDG 2024, data/standard_model.yaml)");
   app->add_option("--mh", o->inputs.higgs_mass, "Higgs-boson pole mass in GeV");
   app->add_option("--alphas", o->inputs.alpha_s, "alpha_s(M_Z)");
   app->add_option("--mw", o->inputs.w_mass, "W-boson pole mass in GeV");
-  app->add_option("--loops", o->inputs.loops, "loop order: 1, 2, or 3 (two loops plus three-loop QCD terms)");
+  app->add_option("--loops", o->inputs.loops, "renormalisation-group running: " + loop_order_choices());
   app->add_option("--at", o->at, "also report lambda and lambda_eff at this scale (default 1.22e19 GeV)");
   app->add_option("--lambda6", o->lambda6, "coefficient of h^6/(6 Mbar^2), Mbar the reduced Planck mass");
-  app->add_option("--lambda8", o->lambda8, "coefficient of h^8/(8 Mbar^4)");
+  app->add_option("--lambda8", o->lambda8, "coefficient of h^8/(8 Mbar^4), Mbar the reduced Planck mass");
   app->add_flag("--coleman-weinberg", o->coleman_weinberg, "add the one-loop top, W and Z terms (Landau gauge)");
   app->add_option("--table", o->table, "write the running couplings to this CSV file");
   app->add_flag("--json", o->json, "print one JSON object on stdout");

@@ -49,6 +49,19 @@ Inputs default_inputs() {
   return in;
 }
 
+std::string loop_order_name(int loops) {
+  switch (loops) {
+    case 1: return "one-loop running";
+    case 2: return "two-loop running";
+    case 3: return "two-loop running plus three-loop QCD terms in g3 and yt";
+  }
+  throw InputError(fmt::format("Higgs inputs: loops = {}: expected 1, 2 or 3", loops));
+}
+
+std::string loop_order_choices() {
+  return fmt::format("1 = {}, 2 = {}, 3 = {}", loop_order_name(1), loop_order_name(2), loop_order_name(3));
+}
+
 void Inputs::validate() const {
   const auto require = [](bool ok, const char* field, double value, const char* rule) {
     if (!ok) throw InputError(fmt::format("Higgs inputs: {} = {}: {}", field, format_real(value), rule));

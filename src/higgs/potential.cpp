@@ -117,11 +117,13 @@ double StandardModelPotential::curvature(double h) const {
 std::string StandardModelPotential::description() const {
   const Inputs& in = running_->inputs();
   return fmt::format(
-      "Standard Model, RG-improved ({} loops{}), M_t = {} GeV, M_h = {} GeV, alpha_s = {}{}", in.loops,
+      "Standard Model, RG-improved ({}{}), M_t = {} GeV, M_h = {} GeV, alpha_s = {}{}", loop_order_name(in.loops),
       options_.coleman_weinberg ? ", one-loop Coleman-Weinberg terms, Landau gauge" : "", format_real(in.top_mass),
       format_real(in.higgs_mass), format_real(in.alpha_s),
       options_.lambda6 != 0 || options_.lambda8 != 0
-          ? fmt::format(", lambda6 = {}, lambda8 = {}", format_real(options_.lambda6), format_real(options_.lambda8))
+          ? fmt::format(", lambda6 h^6/(6 Mbar^2) + lambda8 h^8/(8 Mbar^4) with lambda6 = {}, lambda8 = {} (Mbar the "
+                        "reduced Planck mass)",
+                        format_real(options_.lambda6), format_real(options_.lambda8))
           : "");
 }
 

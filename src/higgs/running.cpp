@@ -85,10 +85,9 @@ Running::Running(const Inputs& inputs, const RunOptions& options) : inputs_(inpu
   for (std::size_t i = 1; i < times.size(); i += 2)
     summary_.max_midpoint_error = std::max(summary_.max_midpoint_error, std::abs(sp->eval(4, times[i]) - states[i][4]));
   splines_ = sp;
-  summary_.message = fmt::format(
-      "{}-loop running from {:.5g} to {:.3g} GeV: {} steps, {} evaluations; lambda spline "
-      "error {:.1e}",
-      loops, inputs_.top_mass, options_.mu_max, summary_.steps, evaluations, summary_.max_midpoint_error);
+  summary_.message = fmt::format("{} from {:.5g} to {:.3g} GeV: {} steps, {} evaluations; lambda spline error {:.1e}",
+                                 loop_order_name(loops), inputs_.top_mass, options_.mu_max, summary_.steps, evaluations,
+                                 summary_.max_midpoint_error);
 }
 
 double Running::t_of(double mu) const {

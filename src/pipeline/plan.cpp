@@ -8,6 +8,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/parallel.hpp"
 #include "ember/tunnelling/landscape.hpp"
+#include "ember/tunnelling/unseeded.hpp"
 #include "work_items.hpp"
 
 namespace ember::pipeline::detail {
@@ -82,7 +83,7 @@ PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
     auto pot = std::make_unique<higgs::StandardModelPotential>(
         m.running, higgs::StandardModelOptions{form->options.coleman_weinberg, hp.lambda6, hp.lambda8});
     m.sm = pot.get();
-    m.stability = higgs::analyse_stability(*pot);
+    m.stability = tunnelling::analyse_unseeded(*pot);
     if (m.stability->verdict == higgs::Verdict::stable)
       m.no_decay = "the Higgs potential is stable for these inputs (lambda_eff stays positive up to the Planck scale)";
     m.potential = std::move(pot);

@@ -144,7 +144,9 @@ Key standard_model() {
        number("alpha_s", "strong coupling alpha_s(M_Z), MS-bar, five flavours", format_real(m.alpha_s.value),
               between(0.1, 0.14)),
        quantity("w_mass", "W-boson pole mass M_W", units::mass, "GeV", gev(m.w_mass.value), between(75, 85)),
-       integer("loops", "loop order of the renormalisation-group running", "3", between(1, 3)), potential});
+       integer("loops", "renormalisation-group running: " + higgs::loop_order_choices(),
+               std::to_string(higgs::Inputs{}.loops), between(1, 3)),
+       potential});
 }
 
 Key evaporation() {
@@ -249,8 +251,14 @@ Key scan() {
                  quantity("sigma", "one standard deviation", units::mass, "GeV", gev(m.higgs_mass.sigma), above(0))),
        band_axis("alpha_s", "alpha_s axis",
                  number("sigma", "one standard deviation", format_real(m.alpha_s.sigma), above(0))),
-       number_list("lambda6", "extra values of lambda6 to scan; empty for none", any_value()),
-       number_list("lambda8", "extra values of lambda8 to scan; empty for none", any_value())});
+       number_list("lambda6",
+                   "extra values of lambda6 (of h^6 / (6 Mbar_Pl^2), Mbar_Pl the reduced Planck mass) to scan; empty "
+                   "for none",
+                   any_value()),
+       number_list("lambda8",
+                   "extra values of lambda8 (of h^8 / (8 Mbar_Pl^4), Mbar_Pl the reduced Planck mass) to scan; empty "
+                   "for none",
+                   any_value())});
   return section(
       "scan", "what to scan",
       {masses, number_list("widths", "lognormal widths to scan; empty for the spectrum's own", between(0.01, 10)),

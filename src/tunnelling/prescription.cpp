@@ -8,10 +8,10 @@
 
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
-#include "ember/higgs/fubini.hpp"
 #include "ember/tunnelling/flat_bounce.hpp"
 #include "ember/tunnelling/remnant_branches.hpp"
 #include "ember/tunnelling/thermal_potential.hpp"
+#include "ember/tunnelling/unseeded.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::tunnelling {
@@ -251,24 +251,14 @@ ActionPoint no_seed(const TunnellingSetup& s, double seed) {
   ActionPoint a;
   a.seed_mass = a.remnant_mass = seed;
   if (s.standard_model) {
-    // S = 8 pi^2 / (3 |q(mu)|) at the mu maximising mu^4 e^{-S} (the higgs module's prescription).
-    const higgs::Running& run = s.standard_model->running();
-    double best = -INFINITY, best_s = INFINITY, best_mu = 0;
-    const double t0 = std::log(run.mu_min()), t1 = std::log(std::min(run.mu_max(), units::planck_mass));
-    for (double t = t0; t <= t1; t += 0.005) {
-      const double mu = std::exp(t), q = higgs::fubini_quartic(*s.standard_model, mu);
-      if (q >= 0) continue;
-      const double action = higgs::fubini_action(std::abs(q)), log_rate = 4 * t - action;
-      if (log_rate > best) {
-        best = log_rate;
-        best_s = action;
-        best_mu = mu;
-      }
-    }
-    if (!std::isfinite(best_s)) return no_decay(seed, "the quartic stays positive up to M_Pl: no flat-space bounce");
-    a.action = {best_s, 1e-10 * best_s};
-    a.own_prefactor = horizon_volume(s, seed) * std::pow(best_mu, 4);
-    a.note = fmt::format("Fubini bounce at mu = {:.4g} GeV", best_mu);
+    // The unseeded estimate of the higgs module, operators on the bounce (unseeded.hpp): S at the
+    // scale mu that maximises mu^4 e^{-S}, and that rate per volume.
+    const higgs::StabilityReport r = analyse_unseeded(*s.standard_model);
+    if (!r.log10_expected_decays) return no_decay(seed, "no flat-space bounce: " + r.prescription);
+    a.action = {r.bounce_action, r.bounce_action_error};
+    a.own_prefactor = horizon_volume(s, seed) * std::pow(r.bounce_scale, 4);
+    a.flags.unconverged = r.bounce_action_error > 1e-4 * r.bounce_action;
+    a.note = fmt::format("{} at mu = {:.4g} GeV", higgs::name_of(r.unseeded_method), r.bounce_scale);
     return a;
   }
   FlatBounce b;

@@ -15,9 +15,10 @@ import sys
 TOKEN = re.compile(r"(?<![A-Za-z0-9_])[-+]?(nan|inf|infinity)(?![A-Za-z0-9_])", re.IGNORECASE)
 # Keys whose value may be null by design: "none" in the documented JSON schemas.
 NULLABLE = {"instability_scale_GeV", "log10_expected_decays", "log10_decay_probability", "bounce_scale_GeV",
-            "critical_top_mass_GeV", "B", "output", "beta_max", "f_max", "band_low", "band_high", "lambda6", "lambda8",
-            "phi_horizon_GeV", "mass_left_g", "lightcone_count", "value", "tightest_scan_bound",
-            "log10_unseeded_expected_decays", "failure", "prescription", "mass_g", "width",
+            "critical_top_mass_GeV", "critical_top_mass_effective_GeV", "bounce_action", "bounce_action_error",
+            "operator_action_first_order", "operator_fraction_first_order", "B", "output", "beta_max", "f_max",
+            "band_low", "band_high", "lambda6", "lambda8", "phi_horizon_GeV", "mass_left_g", "lightcone_count", "value",
+            "tightest_scan_bound", "log10_unseeded_expected_decays", "failure", "prescription", "mass_g", "width",
             "log10_expected_decays_thermal", "beta", "f_pbh"}
 TEXT = {".csv", ".json", ".yaml", ".tsv", ".txt", ".stdout", ""}
 

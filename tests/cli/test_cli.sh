@@ -167,6 +167,20 @@ run "higgs top out of range" 2 -- "$ember" higgs --mt 300
 run "higgs heavy top" 0 -- "$ember" higgs --mt 185
 stdout_has "higgs heavy top" "log10 N (unseeded decays expected"
 stdout_has "higgs heavy top" "a lower bound"
+# The Planck-suppressed operators on the bounce: each run, and lambda(mu) at its bounce scale (--at).
+for l6 in 0 0.001 0.01; do
+  run "higgs lambda6 $l6" 0 -- "$ember" higgs --lambda6 "$l6" --json
+  cp "$work/out" "$work/higgs_l6_$l6.json"
+  mu=$(python3 -c 'import json,sys; print(json.load(open(sys.argv[1]))["bounce_scale_GeV"])' "$work/higgs_l6_$l6.json")
+  run "higgs lambda6 $l6 at the bounce" 0 -- "$ember" higgs --lambda6 "$l6" --at "$mu GeV" --json
+  cp "$work/out" "$work/higgs_l6_${l6}_at.json"
+done
+run "higgs text lambda6" 0 -- "$ember" higgs --lambda6 0.01
+stdout_has "higgs text lambda6" "operators on the bounce (1st order)"
+stdout_has "higgs text lambda6" "reduced Planck mass"
+stdout_has "higgs text lambda6" "effective-potential criterion"
+run "higgs help" 0 -- "$ember" higgs --help
+cp "$work/out" "$work/higgs_help.txt"
 
 # --- bounce ---------------------------------------------------------------------------------------
 run "bounce seed" 0 -- "$ember" bounce --seed-mass "1e5 Mpl" --json
@@ -202,7 +216,7 @@ run "bounce bad scan" 2 -- "$ember" bounce --scan "1e3 Mpl" "1e2 Mpl" 5
 
 # Every --json output is exactly one JSON object; 1e15 g is 1e12 kg.
 python3 - "$work" <<'PY' || failures=$((failures + 1))
-import json, pathlib, sys
+import json, math, pathlib, sys
 work = pathlib.Path(sys.argv[1])
 bad = 0
 for f in sorted((work / "json").glob("*.json")):
@@ -262,6 +276,48 @@ if abs(h["lambda_at"] + 0.0143) > 0.0005:
 # P = 1 - e^-N is N itself for N ~ 1e-868 (the key beside log10 N).
 if h.get("log10_decay_probability") != h.get("log10_expected_decays"):
     print(f"FAIL: higgs log10_decay_probability {h.get('log10_decay_probability')} != log10 N")
+    bad += 1
+for key in ("critical_top_mass_effective_GeV", "unseeded_method", "bounce_action", "operator_action_first_order",
+            "quartic_min"):
+    if key not in h:
+        print(f"FAIL: higgs --json lacks {key}")
+        bad += 1
+if h["inputs"]["running"] != "two-loop running plus three-loop QCD terms in g3 and yt":
+    print(f"FAIL: higgs --json names loops 3 as {h['inputs']['running']!r}")
+    bad += 1
+# The operators on the bounce, end to end. Derived: S = 8 pi^2/(3|lambda|) + (64 pi^2/15) lambda6
+# mu^2/(Mbar^2 |lambda|^3) at the bounce scale mu, lambda = lambda(mu) from --at there, and
+# log10 P = log10 N = [4 ln(mu/H0) - S]/ln 10 with H0 = 67.66 km/s/Mpc (Planck 2018 VI, Table 2).
+# Mbar = M_Pl/sqrt(8 pi), M_Pl = 1.220890e19 GeV (CODATA 2018).
+mbar2 = 1.220890e19 ** 2 / (8 * math.pi)
+h0 = 67.66 / 3.0856775814913673e19 * 6.582119569e-25  # km/s/Mpc -> 1/s -> GeV (hbar, CODATA 2018)
+p = {}
+for l6 in ("0", "0.001", "0.01"):
+    r = json.loads((work / f"higgs_l6_{l6}.json").read_text())
+    lam = json.loads((work / f"higgs_l6_{l6}_at.json").read_text())["lambda_at"]
+    mu, x = r["bounce_scale_GeV"], float(l6)
+    s = 8 * math.pi ** 2 / (3 * -lam) + 64 * math.pi ** 2 / 15 * x * mu * mu / (mbar2 * -lam ** 3)
+    log10_n = (4 * math.log(mu / h0) - s) / math.log(10)
+    if r["unseeded_method"] != "fubini_first_order" or not r["operators_first_order"]:
+        print(f"FAIL: higgs --lambda6 {l6}: first order should hold ({r['operator_fraction_first_order']})")
+        bad += 1
+    if abs(r["bounce_action"] - s) > 1e-6 * s or abs(r["log10_decay_probability"] - log10_n) > 1e-3:
+        print(f"FAIL: higgs --lambda6 {l6}: S = {r['bounce_action']}, log10 P = {r['log10_decay_probability']}; "
+              f"on the bounce {s}, {log10_n}")
+        bad += 1
+    p[l6] = r["log10_decay_probability"]
+# The former estimate (operators at h = mu) moved log10 P by -1.67 and -6.47 (measured before the
+# change); on the bounce it moves by about ten times more.
+if not (p["0"] - p["0.001"] > 10 and p["0"] - p["0.01"] > 30):
+    print(f"FAIL: higgs: lambda6 moves log10 P too little: {p}")
+    bad += 1
+help_text = (work / "higgs_help.txt").read_text().splitlines()
+for option in ("--lambda6", "--lambda8"):
+    if not any(option in line and "reduced Planck mass" in line for line in help_text):
+        print(f"FAIL: higgs --help: {option} does not say Mbar is the reduced Planck mass")
+        bad += 1
+if not any("--loops" in line and "three-loop QCD terms in g3 and yt" in line for line in help_text):
+    print("FAIL: higgs --help: --loops does not name what order 3 runs")
     bad += 1
 st = json.loads((work / "higgs_stable.json").read_text())
 if st["verdict"] != "stable" or st["instability_scale_GeV"] is not None or st["log10_expected_decays"] is not None:

@@ -9,8 +9,8 @@
 
 namespace ember::higgs {
 
-// d/dt of (g1, g2, g3, yt, lambda) at the given loop order (1, 2, or 3 = two loops plus the
-// three-loop QCD terms).
+// d/dt of (g1, g2, g3, yt, lambda) at the given loop order (1, 2, or 3 = two-loop running plus
+// three-loop QCD terms in g3 and yt; loop_order_name).
 Couplings beta(const Couplings& c, int loops);
 
 // The Higgs field's anomalous dimension at one loop in Landau gauge:

@@ -1,6 +1,7 @@
-// The O(4) bounce of a pure negative quartic, V = -|lambda| phi^4 / 4, in flat space.
+// The O(4) bounce of a pure negative quartic, V = -|lambda| phi^4 / 4, in flat space, and the
+// first-order action of the Planck-suppressed operators on it.
 //
-// Units: phi in GeV, r in GeV^-1; the action is dimensionless.
+// Units: phi in GeV, r in GeV^-1, mu in GeV; the action is dimensionless.
 //
 // Analytic (Fubini, Nuovo Cim. A34 (1976) 521; Lipatov 1977): phi = sqrt(8/|lambda|) R/(r^2 + R^2)
 // for any R, with S = 8 pi^2 / (3 |lambda|). The numerical solve integrates
@@ -10,17 +11,17 @@
 #pragma once
 
 #include "ember/core/estimate.hpp"
-#include "ember/higgs/potential.hpp"
 
 namespace ember::higgs {
 
 double fubini_action(double lambda_abs);
 
-// The quartic the unseeded Fubini bounce of size R sees, at mu = 1/R: the MS-bar lambda(mu) plus
-// the Planck-suppressed operators evaluated at h = mu,
-//   q = lambda(mu) + (2/3) lambda6 mu^2/Mbar^2 + (1/2) lambda8 mu^4/Mbar^4,
-// so that V = q h^4/4 there (potential.hpp's operator normalisation).
-double fubini_quartic(const StandardModelPotential& potential, double mu);
+// The operators lambda6 h^6/(6 Mbar^2) + lambda8 h^8/(8 Mbar^4) (Mbar the reduced Planck mass,
+// potential.hpp's normalisation) integrated over the Fubini profile of size R = 1/mu, which
+// reaches h = sqrt(8/|lambda|) mu at its centre: their first-order addition to the action
+// (derived in fubini.cpp),
+//   Delta S = (64 pi^2/15) lambda6 mu^2/(Mbar^2 |lambda|^3) + (256 pi^2/21) lambda8 mu^4/(Mbar^4 |lambda|^4).
+double operator_action(double lambda_abs, double mu, double lambda6, double lambda8);
 
 struct QuarticBounce {
   Estimate action;

@@ -24,11 +24,18 @@ struct Inputs {
   double higgs_mass = 125.2;  // GeV, pole
   double alpha_s = 0.118;     // alpha_s(M_Z), MS-bar, five flavours
   double w_mass = 80.3692;    // GeV, pole
-  int loops = 3;              // 1, 2, or 3 (two loops plus the three-loop QCD terms)
+  int loops = 3;              // 1, 2, or 3: see loop_order_name
 
   void validate() const;  // throws InputError naming the field and the rule
 };
 Inputs default_inputs();  // the measured central values
+
+// What each loop order runs, in words, for every place that prints it: 1 "one-loop running",
+// 2 "two-loop running", 3 "two-loop running plus three-loop QCD terms in g3 and yt" (beta.hpp:
+// order 3 adds only the pure-QCD three-loop terms, not the full three-loop functions).
+std::string loop_order_name(int loops);
+// "1 = one-loop running, 2 = ..., 3 = ...": the choices, for help texts and the schema.
+std::string loop_order_choices();
 
 struct Couplings {
   double g1, g2, g3, yt, lambda;

@@ -11,9 +11,10 @@
 //   hot_bubble    a flat-space O(3) thermal bubble at T = T_H with the Standard Model thermal
 //                 mass: the enhancement is only thermal; rate T^4 (S3/2 pi T)^{3/2} e^{-S3/T}
 //                 times a near-horizon volume.
-//   no_seed       the homogeneous flat-space O(4) decay (no black hole), the baseline: the
-//                 Fubini bounce for the Standard Model, a numerical O(4) bounce otherwise; rate
-//                 per volume times the horizon volume, for comparison only.
+//   no_seed       the homogeneous flat-space O(4) decay (no black hole), the baseline: for the
+//                 Standard Model the unseeded estimate of unseeded.hpp (the Fubini family, the
+//                 Planck-suppressed operators on the bounce), a numerical O(4) bounce otherwise;
+//                 rate per volume times the horizon volume, for comparison only.
 //   thin_wall     a thin wall of tension sigma and vacuum-energy gap epsilon: the static wall
 //                 around the hole from the Israel junction conditions; without one, the
 //                 Coleman-De Luccia no-seed action.
