@@ -312,7 +312,8 @@ TEST_CASE("the share of N resting on B below the minimum action") {
   // about e^-(50 - 34) ~ 1e-7.
   const double mass = 1e7 * u::planck_mass / u::gram;
   const std::string m = fmt::format("{} g", mass);
-  for (const auto& [minimum, low, high] : {std::tuple{"1", 0.0, 1e-6}, std::tuple{"50", 0.999, 1.0}}) {
+  for (const auto& [minimum_text, low, high] : {std::tuple{"1", 0.0, 1e-6}, std::tuple{"50", 0.999, 1.0}}) {
+    const std::string minimum = minimum_text;  // a plain variable: doctest's CAPTURE takes it by reference
     CAPTURE(minimum);
     const population::Counts c = monochromatic_run(m, std::string("minimum_action: ") + minimum).outcomes.at(0).counts;
     REQUIRE(c.lightcone > 0);

@@ -81,13 +81,23 @@ void central_point(const PointModel& model, JobResults& out) {
 
 // One row's beta_max at one band point, folded into the envelope (the central point comes first,
 // so its curve exists already).
-void fold_into_band(std::optional<double> beta_max, CurveRow& row) {
+void widen(std::optional<double>& low, std::optional<double>& high, double beta_max) {
+  low = low ? std::min(*low, beta_max) : beta_max;
+  high = high ? std::max(*high, beta_max) : beta_max;
+}
+
+// Every point widens the whole band; those within 1 and 2 sigma of the central inputs (with the
+// central operators) widen the 1 and 2 sigma bands too.
+void fold_into_band(std::optional<double> beta_max, const HiggsPoint& p, CurveRow& row) {
   if (!beta_max) {
     ++row.band_without;
     return;
   }
-  row.band_low = row.band_low ? std::min(*row.band_low, *beta_max) : *beta_max;
-  row.band_high = row.band_high ? std::max(*row.band_high, *beta_max) : *beta_max;
+  widen(row.band_low, row.band_high, *beta_max);
+  if (p.operators) return;
+  constexpr double slack = 1e-9;  // the axis offsets are computed, not exact
+  if (p.sigmas <= 1 + slack) widen(row.band1_low, row.band1_high, *beta_max);
+  if (p.sigmas <= 2 + slack) widen(row.band2_low, row.band2_high, *beta_max);
 }
 
 // One Higgs point under every prescription: its band entry, its failures, and (for the central
@@ -113,8 +123,11 @@ BandPoint assemble_point(const JobPlan& plan, std::size_t point, const std::vect
     for (std::size_t r = 0; r < plan.rows.size(); ++r) {
       bp.constraint |= item.beta_max[r].has_value();
       if (row_failed(item, r)) failure(name, plan.rows[r], item.row_failures[r]);
-      if (r < out.outcomes[k].curve.size()) fold_into_band(item.beta_max[r], out.outcomes[k].curve[r]);
+      if (r < out.outcomes[k].curve.size()) fold_into_band(item.beta_max[r], bp.point, out.outcomes[k].curve[r]);
     }
+    bp.lightcone.push_back(item.failure.empty() ? std::optional<double>(item.counts.lightcone) : std::nullopt);
+    bp.beta_max.push_back(item.beta_max);
+    bp.f_max.push_back(item.f_max);
   }
   if (bp.point.central) central_point(model, out);
   return bp;

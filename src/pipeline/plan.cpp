@@ -49,28 +49,37 @@ std::vector<HiggsPoint> higgs_points(const StandardModelInputs& sm, const ScanCh
                      "central"};
   std::vector<HiggsPoint> out{central};
   if (!form) return out;
+  // Each axis: the values and their offsets in sigma.
   const auto axis = [](const BandAxis& a, double centre) {
-    std::vector<double> v;
-    for (int i = 0; i < a.points; ++i)
-      v.push_back(a.points == 1 ? centre : centre + a.sigma * a.span * (2.0 * i / (a.points - 1) - 1));
+    std::vector<std::pair<double, double>> v;
+    for (int i = 0; i < a.points; ++i) {
+      const double k = a.points == 1 ? 0.0 : a.span * (2.0 * i / (a.points - 1) - 1);
+      v.emplace_back(centre + a.sigma * k, k);
+    }
     return v;
   };
   std::vector<double> l6{central.lambda6}, l8{central.lambda8};
   l6.insert(l6.end(), scan.band.lambda6.begin(), scan.band.lambda6.end());
   l8.insert(l8.end(), scan.band.lambda8.begin(), scan.band.lambda8.end());
-  for (const double mt : axis(scan.band.top_mass, sm.inputs.top_mass))
-    for (const double mh : axis(scan.band.higgs_mass, sm.inputs.higgs_mass))
-      for (const double as : axis(scan.band.alpha_s, sm.inputs.alpha_s))
+  // Labels to six figures, with each offset in sigma: no float noise (171.98999999999998).
+  const auto value = [](const char* name, double x, double k, const char* unit) {
+    return k == 0 ? fmt::format("{} {:.6g}{}", name, x, unit)
+                  : fmt::format("{} {:.6g}{} ({:+.3g} sigma)", name, x, unit, k);
+  };
+  for (const auto& [mt, kt] : axis(scan.band.top_mass, sm.inputs.top_mass))
+    for (const auto& [mh, kh] : axis(scan.band.higgs_mass, sm.inputs.higgs_mass))
+      for (const auto& [as, ka] : axis(scan.band.alpha_s, sm.inputs.alpha_s))
         for (const double a6 : l6)
           for (const double a8 : l8) {
             HiggsPoint p{sm.inputs, a6, a8, false, ""};
             p.inputs.top_mass = mt;
             p.inputs.higgs_mass = mh;
             p.inputs.alpha_s = as;
-            if (mt == central.inputs.top_mass && mh == central.inputs.higgs_mass && as == central.inputs.alpha_s &&
-                a6 == central.lambda6 && a8 == central.lambda8)
-              continue;
-            p.label = fmt::format("M_t {} M_h {} alpha_s {} lambda6 {} lambda8 {}", mt, mh, as, a6, a8);
+            if (kt == 0 && kh == 0 && ka == 0 && a6 == central.lambda6 && a8 == central.lambda8) continue;
+            p.sigmas = std::max({std::abs(kt), std::abs(kh), std::abs(ka)});
+            p.operators = a6 != central.lambda6 || a8 != central.lambda8;
+            p.label = fmt::format("{}, {}, {}, lambda6 {:.6g}, lambda8 {:.6g}", value("M_t", mt, kt, " GeV"),
+                                  value("M_h", mh, kh, " GeV"), value("alpha_s", as, ka, ""), a6, a8);
             out.push_back(p);
           }
   return out;

@@ -168,9 +168,9 @@ void extended_rows(const JobPlan& plan, const WorkItem& w, const std::vector<pop
     }
 }
 
-// The central point's own abundance, and Gamma_D / Gamma_H for the plot.
-void central_extras(const JobPlan& plan, const WorkItem& w, const tunnelling::ActionTable& table,
-                    const std::vector<population::Response>& grid, ItemResult& u) {
+// The scenario's own abundance at this Higgs point (every point: the band reports N per point).
+void own_counts(const JobPlan& plan, const WorkItem& w, const tunnelling::ActionTable& table,
+                const std::vector<population::Response>& grid, ItemResult& u) {
   const scenario::Scenario& s = *plan.scenario;
   if (plan.options->before_row) plan.options->before_row(w.point, w.prescription, plan.rows.size());
   const std::vector<population::Response> own =
@@ -178,6 +178,12 @@ void central_extras(const JobPlan& plan, const WorkItem& w, const tunnelling::Ac
                                  plan.base->characteristic_mass(), table, context_at(plan, w.point))}
                            : grid;
   u.counts = population::counts_for(*plan.base, s.population.abundance.measure, s.population.abundance.value, own);
+}
+
+// The central point's responses for decay.csv, and Gamma_D / Gamma_H for the plot.
+void central_extras(const JobPlan& plan, const tunnelling::ActionTable& table,
+                    const std::vector<population::Response>& grid, ItemResult& u) {
+  const scenario::Scenario& s = *plan.scenario;
   if (!plan.monochromatic()) u.scan = grid;
   u.table_summary = table.summary().message;
   for (const double m : plan.plot_masses) {
@@ -221,7 +227,8 @@ ItemResult assemble_table(const JobPlan& plan, const WorkItem& w, const TableRec
       }
     }
     if (!plan.monochromatic()) extended_rows(plan, w, grid, u);
-    if (plan.points[w.point].central) central_extras(plan, w, *table, grid, u);
+    own_counts(plan, w, *table, grid, u);
+    if (plan.points[w.point].central) central_extras(plan, *table, grid, u);
   } catch (const NumericalError& e) {
     // The whole unit failed (the scenario's own counts): recorded, and the others go on.
     return failed_unit(n, one_line(e.what()), record.cache_hit);

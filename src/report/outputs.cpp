@@ -6,6 +6,7 @@
 #include <cmath>
 #include <cstdlib>
 
+#include "band.hpp"
 #include "ember/core/atomic_file.hpp"
 #include "ember/core/data_files.hpp"
 #include "ember/core/errors.hpp"
@@ -66,6 +67,21 @@ Tightest tightest(const pipeline::JobResults& r) {
   return t;
 }
 
+// The scenario itself on the constraint plot: its (characteristic) mass and beta there.
+std::string scenario_point(const pipeline::JobResults& r) {
+  for (const auto& o : r.outcomes)
+    if (o.failure.empty() && o.counts.beta > 0 && !o.curve.empty())
+      return fmt::format("scenario-point: {:.8e} {:.8e} (the scenario's own mass and beta)", r.spectrum_mass / u::gram,
+                         o.counts.beta);
+  return "scenario-point: none";
+}
+
+// constraint.csv's word on a flat band (or that it is not flat).
+std::string flat_band_line(const pipeline::JobResults& r) {
+  const auto note = detail::flat_band_note(r);
+  return note ? *note : "the band is not flat: beta_max moves with the Higgs inputs";
+}
+
 std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   const bool mono = std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum);
   std::string out = csv_header(
@@ -76,6 +92,7 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
             : "rows: characteristic mass (and width) of the extended spectrum (lognormal: peak_mass; power_law: "
               "max_mass; critical_collapse: cutoff_mass; table: the geometric mean of its range); beta_max quoted "
               "there",
+       scenario_point(r),
        mono ? "x-axis: formation mass [g]"
             : "x-axis: characteristic mass of the spectrum [g] (lognormal: peak mass; power law: upper cutoff)",
        fmt::format("excluded when the expected decays in our past light cone exceed {}",
@@ -83,6 +100,9 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
        fmt::format(
            "band: beta_max envelope over {} Higgs-input point(s); band_without counts points with no constraint",
            r.band.size()),
+       "band1, band2: the envelope over the points within 1 and within 2 sigma of the central M_t, M_h and alpha_s "
+       "(central operators); band.csv has every point",
+       flat_band_line(r),
        "empty cell: no constraint there (no decays, or even beta = 1 gives fewer decays than the limit)",
        "failed_<prescription> = 1: a solver failed at this row (summary.json failed_points says why); its cells "
        "are empty"});
@@ -90,6 +110,9 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
   for (const auto& o : r.outcomes) out += fmt::format(",beta_max_{0},f_max_{0}", tunnelling::name_of(o.prescription));
   for (const auto& o : r.outcomes)
     out += fmt::format(",band_low_{0},band_high_{0},band_without_{0}", tunnelling::name_of(o.prescription));
+  for (const auto& o : r.outcomes)
+    out +=
+        fmt::format(",band1_low_{0},band1_high_{0},band2_low_{0},band2_high_{0}", tunnelling::name_of(o.prescription));
   for (const auto& o : r.outcomes) out += fmt::format(",failed_{}", tunnelling::name_of(o.prescription));
   out += "\n";
   const std::size_t rows = r.outcomes.empty() ? 0 : r.outcomes.front().curve.size();
@@ -99,6 +122,9 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
     for (const auto& o : r.outcomes) out += fmt::format(",{},{}", cell(o.curve[i].beta_max), cell(o.curve[i].f_max));
     for (const auto& o : r.outcomes)
       out += fmt::format(",{},{},{}", cell(o.curve[i].band_low), cell(o.curve[i].band_high), o.curve[i].band_without);
+    for (const auto& o : r.outcomes)
+      out += fmt::format(",{},{},{},{}", cell(o.curve[i].band1_low), cell(o.curve[i].band1_high),
+                         cell(o.curve[i].band2_low), cell(o.curve[i].band2_high));
     for (const auto& o : r.outcomes) out += o.curve[i].failed ? ",1" : ",0";
     out += "\n";
   }
@@ -228,6 +254,14 @@ constexpr double thermal_caution_log10 = -3;
 
 }  // namespace
 
+// The scenario's own N at one band point, per prescription (null where its unit failed).
+ordered_json band_counts(const pipeline::JobResults& r, const pipeline::BandPoint& b) {
+  ordered_json n = ordered_json::object();
+  for (std::size_t k = 0; k < r.outcomes.size() && k < b.lightcone.size(); ++k)
+    n[tunnelling::name_of(r.outcomes[k].prescription)] = number_or_null(b.lightcone[k]);
+  return n;
+}
+
 ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   ordered_json j;
   j["ember_version"] = version;
@@ -320,11 +354,14 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
                     {"alpha_s", b.point.inputs.alpha_s},
                     {"lambda6", b.point.lambda6},
                     {"lambda8", b.point.lambda8},
+                    {"sigmas", b.point.sigmas},
                     {"verdict", higgs::name_of(b.verdict)},
                     {"constraint", b.constraint},
                     {"log10_unseeded_expected_decays", number_or_null(b.log10_unseeded)},
-                    {"failed", b.failed}});
+                    {"failed", b.failed},
+                    {"N_lightcone", band_counts(r, b)}});
   j["band"] = band;
+  if (const auto note = detail::flat_band_note(r)) j["band_note"] = *note;
   // Every point where a solver failed, with its reason; the rest of the scan went on without it.
   ordered_json failed = ordered_json::array();
   for (const auto& f : r.failures)
@@ -381,6 +418,7 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
     t += fmt::format(" {} {:.3g}%;", tunnelling::name_of(o.prescription),
                      100 * share_resting_on(o.counts.lightcone_semiclassical, o.counts.lightcone));
   t += "\n";
+  if (const auto note = detail::flat_band_note(r)) t += "  band: " + *note + "\n";
   if (!r.failures.empty())
     t += fmt::format("  failed points: {} (in summary.json failed_points; the rest of the scan went on); first: {}\n",
                      r.failures.size(), r.failures.front().reason);
@@ -435,6 +473,16 @@ Written write_outputs(const scenario::LoadedScenario& l, const pipeline::JobResu
   }
   if (wants(s, "constraint")) texts.emplace_back("constraint.csv", constraint_csv(l, r));
   if (wants(s, "decay")) texts.emplace_back("decay.csv", decay_csv(l, r));
+  if (wants(s, "band") && r.band.size() > 1)
+    texts.emplace_back("band.csv",
+                       detail::band_csv(l, r,
+                                        csv_header(l, "the band, point by point",
+                                                   {"units: masses in g; sigmas = the largest offset of M_t, M_h and "
+                                                    "alpha_s from the central inputs, in their sigma",
+                                                    "N_row: the scenario's abundance at this scan row (beta or "
+                                                    "f_PBH measure) over its allowed value, times max_decays; "
+                                                    "N_scenario: the scenario's own N at this point",
+                                                    "empty cell: no constraint there, or not computed"})));
   if (wants(s, "resolved")) texts.emplace_back("resolved.yaml", scenario::resolved_yaml(l));
   if (wants(s, "plots")) {
     texts.emplace_back("rates.csv", rates_csv(l, r));

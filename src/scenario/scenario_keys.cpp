@@ -281,9 +281,12 @@ Key exclusion() {
 Key output() {
   return section("output", "what to write",
                  {output_path("directory", "folder for results, relative to the current folder", "ember-out"),
-                  option_list("files", "result files to write", {"summary", "constraint", "decay", "resolved", "plots"},
-                              {"summary", "constraint", "decay", "resolved", "plots"}),
-                  option_list("plot_formats", "image formats for plots", {"png", "pdf"}, {"png", "pdf"})});
+                  option_list("files",
+                              "result files to write (band: band.csv, written when the band has more than "
+                              "one point)",
+                              {"summary", "constraint", "decay", "band", "resolved", "plots"},
+                              {"summary", "constraint", "decay", "band", "resolved", "plots"}),
+                  option_list("plot_formats", "image formats for plots", {"png", "pdf", "svg"}, {"png", "pdf"})});
 }
 
 }  // namespace

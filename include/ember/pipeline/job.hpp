@@ -60,6 +60,8 @@ struct HiggsPoint {
   double lambda6 = 0, lambda8 = 0;
   bool central = false;
   std::string label;
+  double sigmas = 0;       // the largest |offset| / sigma over M_t, M_h and alpha_s
+  bool operators = false;  // lambda6 or lambda8 differ from the central point's
 };
 
 struct CurveRow {
@@ -67,8 +69,11 @@ struct CurveRow {
   double width = 0;                           // lognormal width, 0 when not scanned
   std::optional<double> beta_max, f_max;      // none: no constraint (no decays, or a bound >= 1)
   std::optional<double> band_low, band_high;  // beta_max envelope over the band points with a constraint
-  int band_without = 0;                       // band points where there is no constraint here
-  bool failed = false;                        // a solver failed here (JobResults::failures says why)
+  // The same over the points within 1 sigma and within 2 sigma of the central inputs (the
+  // central operators only): the measured uncertainty of M_t, M_h and alpha_s.
+  std::optional<double> band1_low, band1_high, band2_low, band2_high;
+  int band_without = 0;  // band points where there is no constraint here
+  bool failed = false;   // a solver failed here (JobResults::failures says why)
 };
 
 struct PrescriptionOutcome {
@@ -92,6 +97,10 @@ struct BandPoint {
   bool constraint = false;
   std::optional<double> log10_unseeded;
   bool failed = false;  // some unit of this point failed (JobResults::failures says why)
+  // Per prescription: the scenario's own N at this point (none where its unit failed), and
+  // beta_max / f_max per scan row (band.csv).
+  std::vector<std::optional<double>> lightcone;
+  std::vector<std::vector<std::optional<double>>> beta_max, f_max;
 };
 
 // A point of the scan where a solver failed; the rest of the scan went on without it.
@@ -107,9 +116,10 @@ struct JobResults {
   std::optional<higgs::StabilityReport> stability;              // Standard Model potentials
   std::optional<population::ThermalBaseline> thermal_baseline;  // the hot universe's own decay (SM potentials)
   std::string spectrum;                                         // description
-  std::string greybody;                                         // which greybody table, and its stated error
-  std::optional<bool> greybody_from_cache;                      // a computed table: read from the cache or built
-  bool no_constraint = false;                                   // stable potential or no bubble: no seeded decay at all
+  double spectrum_mass = 0;                 // its formation (monochromatic) or characteristic mass, GeV
+  std::string greybody;                     // which greybody table, and its stated error
+  std::optional<bool> greybody_from_cache;  // a computed table: read from the cache or built
+  bool no_constraint = false;               // stable potential or no bubble: no seeded decay at all
   std::string no_constraint_reason;
   std::vector<PrescriptionOutcome> outcomes;
   std::vector<BandPoint> band;                                   // every Higgs point, central first
