@@ -362,3 +362,29 @@ TEST_CASE("where the decays come from: an asteroid-mass lognormal is constrained
   CHECK(kept < 1);
   CHECK(std::abs(kept - (1 - below / total)) < 0.05);
 }
+
+TEST_CASE("the scan follows the spectrum by default, and an explicit range that misses it is warned of") {
+  const auto run = [](const std::string& masses) {
+    return pipeline::run_job(
+        scenario::load_scenario_text(
+            "population:\n  spectrum: {shape: lognormal, peak_mass: 1e16 g, width: 0.5}\n"
+            "  abundance: {measure: f_pbh, value: 1e-3}\ntunnelling: {prescriptions: [probe_field]}\n"
+            "scan: {masses: " +
+                masses + "}\n",
+            "scan.yaml", ".")
+            .scenario);
+  };
+  // Left out, the range is the spectrum's own: the lognormal's 7.5 widths either side of its peak
+  // (population/mass_function.cpp: 1e-13 of its weight outside), and nothing is warned of.
+  const pipeline::JobResults own = run("{points: 3}");
+  const auto& curve = own.outcomes.at(0).curve;
+  REQUIRE(curve.size() == 3);
+  CHECK(close(curve.front().mass, 1e16 * u::gram * std::exp(-7.5 * 0.5), 1e-9));
+  CHECK(close(curve[1].mass, 1e16 * u::gram, 1e-9));
+  CHECK(own.warnings.empty());
+  // The old default, 1 g to 1e15 g, misses the peak and almost all of the abundance.
+  const pipeline::JobResults cut = run("{from: 1 g, to: 1e15 g, points: 3}");
+  REQUIRE(cut.warnings.size() == 2);
+  CHECK(cut.warnings[0].find("misses the scenario's own characteristic mass") != std::string::npos);
+  CHECK(cut.warnings[1].find("of the spectrum's abundance lies outside") != std::string::npos);
+}

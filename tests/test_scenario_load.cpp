@@ -55,8 +55,8 @@ TEST_CASE("every variant reads into its typed form") {
     CHECK(s.tunnelling.prefactor == Prefactor::light_crossing);
     CHECK(s.tunnelling.wall_tension == 1e30);
     CHECK(s.tunnelling.energy_gap == 2.5e38);
-    CHECK(close(s.scan.masses.from, 1e-3 * units::kilogram));
-    CHECK(close(s.scan.masses.to, 1e-10 * units::solar_mass));
+    CHECK(close(s.scan.masses.from.value_or(0), 1e-3 * units::kilogram));
+    CHECK(close(s.scan.masses.to.value_or(0), 1e-10 * units::solar_mass));
     CHECK(s.scan.widths == std::vector<double>{0.3, 1});
     CHECK(s.scan.band.top_mass.points == 5);
     CHECK(s.scan.band.top_mass.span == 3);

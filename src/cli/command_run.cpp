@@ -33,6 +33,7 @@ void print_notes(const pipeline::ScenarioRun& run, bool quiet) {
     std::cerr << fmt::format("ember: warning: {}; the tables built here will be built again next time\n",
                              *r.cache_warning);
   if (r.checkpoint_warning) std::cerr << fmt::format("ember: warning: {}\n", *r.checkpoint_warning);
+  for (const auto& w : r.warnings) std::cerr << fmt::format("ember: warning: {}\n", w);
   if (!quiet && r.greybody_from_cache)
     std::cerr << fmt::format("ember: greybody table: {}\n", *r.greybody_from_cache ? "from the cache" : "built");
   if (!quiet && r.items_resumed > 0)

@@ -119,6 +119,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   detail::JobPlan plan = detail::make_plan(s, o, background, mass_loss, out.spectrum);
   out.plot_masses = plan.plot_masses;
   out.spectrum_mass = plan.base->characteristic_mass();
+  out.warnings = plan.warnings;
   const detail::Executed done = detail::execute(plan);
   out.items_resumed = done.resumed;
   out.checkpoint_warning = done.checkpoint_warning;

@@ -110,6 +110,28 @@ PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
   return m;
 }
 
+// An explicit scan range that misses the scenario's own (peak) mass, or leaves out more than a
+// stated share of its abundance, shows a constraint curve that is not about this scenario.
+void scan_warnings(const Scenario& s, JobPlan& plan) {
+  if (std::holds_alternative<TabulatedSpectrum>(s.population.spectrum)) return;  // one row, at its own mass
+  const double own = plan.base->characteristic_mass();
+  const bool mono = plan.base->monochromatic();
+  if (own < plan.scan_from || own > plan.scan_to)
+    plan.warnings.push_back(
+        fmt::format("scan.masses: the range {:.4g} g to {:.4g} g misses the scenario's own {} at "
+                    "{:.4g} g; constraint.csv and the plot do not show it",
+                    plan.scan_from / units::gram, plan.scan_to / units::gram, mono ? "mass" : "characteristic mass",
+                    own / units::gram));
+  if (mono) return;
+  const double out = population::share_outside(*plan.base, plan.scan_from, plan.scan_to);
+  if (out > scan_abundance_cut)
+    plan.warnings.push_back(
+        fmt::format("scan.masses: {:.3g} of the spectrum's abundance lies outside the range "
+                    "{:.4g} g to {:.4g} g (more than {:.0e}); leave from and to out to follow "
+                    "the spectrum",
+                    out, plan.scan_from / units::gram, plan.scan_to / units::gram, scan_abundance_cut));
+}
+
 // The scan: formation or characteristic masses, and widths for a lognormal spectrum. A tabulated
 // spectrum has one row, at its own characteristic mass.
 void plan_rows(const Scenario& s, JobPlan& plan) {
@@ -117,10 +139,21 @@ void plan_rows(const Scenario& s, JobPlan& plan) {
   const std::vector<double> widths =
       std::holds_alternative<Lognormal>(s.population.spectrum) ? s.scan.widths : std::vector<double>{};
   const MassGrid& g = s.scan.masses;
+  const bool mono = plan.base->monochromatic();
+  const double from = g.from.value_or(mono ? monochromatic_scan_from_g * units::gram : plan.base->low());
+  const double to = g.to.value_or(mono ? monochromatic_scan_to_g * units::gram : plan.base->high());
+  if (!(to >= from))
+    throw InputError(
+        fmt::format("scan.masses: from {:.4g} g lies above to {:.4g} g once the spectrum fills in the "
+                    "missing end; expected from <= to",
+                    from / units::gram, to / units::gram));
+  plan.scan_from = from;
+  plan.scan_to = to;
+  scan_warnings(s, plan);
   for (int i = 0; i < (table_spectrum ? 1 : g.points); ++i) {
     const double m = table_spectrum  ? plan.base->characteristic_mass()
-                     : g.points == 1 ? g.from
-                                     : g.from * std::pow(g.to / g.from, static_cast<double>(i) / (g.points - 1));
+                     : g.points == 1 ? from
+                                     : from * std::pow(to / from, static_cast<double>(i) / (g.points - 1));
     if (widths.empty()) plan.rows.push_back({m, std::nullopt});
     for (const double w : widths) plan.rows.push_back({m, w});
   }

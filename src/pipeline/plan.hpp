@@ -52,6 +52,8 @@ struct JobPlan {
   const evaporation::MassLoss* mass_loss = nullptr;
   std::unique_ptr<population::MassFunction> base;
   std::vector<ScanRow> rows;
+  double scan_from = 0, scan_to = 0;  // the scan's mass range as used (GeV)
+  std::vector<std::string> warnings;  // about the scan's range against the scenario's own spectrum
   std::vector<std::unique_ptr<population::MassFunction>> row_spectra;
   std::vector<double> grid;  // extended spectra: the response-grid masses
   population::ResponseContext context;

@@ -138,6 +138,21 @@ class CutBelow final : public MassFunction {
 };
 }  // namespace
 
+double share_outside(const MassFunction& s, double from, double to) {
+  if (s.monochromatic()) return s.characteristic_mass() >= from && s.characteristic_mass() <= to ? 0.0 : 1.0;
+  const int n = 4000;
+  const double lo = std::log(s.low()), hi = std::log(s.high());
+  double total = 0, outside = 0;
+  for (int i = 0; i < n; ++i) {
+    const double a = lo + (hi - lo) * i / n, b = lo + (hi - lo) * (i + 1) / n;
+    const double piece = 0.5 * (std::exp(a) * s.psi(std::exp(a)) + std::exp(b) * s.psi(std::exp(b))) * (b - a);
+    total += piece;
+    const double mid = std::exp(0.5 * (a + b));
+    if (mid < from || mid > to) outside += piece;
+  }
+  return total > 0 ? outside / total : 0.0;
+}
+
 std::unique_ptr<MassFunction> cut_below(std::unique_ptr<MassFunction> s, double mass) {
   return std::make_unique<CutBelow>(std::move(s), mass);
 }

@@ -269,6 +269,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["scenario_hash"] = scenario::scenario_hash(l);
   j["title"] = l.scenario.title;
   j["prescriptions"] = nullptr;  // filled below; the verdict leads the file
+  j["warnings"] = r.warnings;
   j["definitions"] = {
       {"N_lightcone", "expected seeded decays in our past light cone"},
       {"N_hubble",

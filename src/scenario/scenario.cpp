@@ -97,7 +97,8 @@ BandAxis read_axis(const YAML::Node& n, bool is_mass) {
 
 ScanChoices read_scan(const YAML::Node& n) {
   const YAML::Node m = n["masses"], b = n["band"];
-  return ScanChoices{MassGrid{mass(m["from"]), mass(m["to"]), whole(m["points"])}, numbers(n["widths"]),
+  const auto end = [&](const char* key) { return m[key] ? std::optional<double>(mass(m[key])) : std::nullopt; };
+  return ScanChoices{MassGrid{end("from"), end("to"), whole(m["points"])}, numbers(n["widths"]),
                      Band{read_axis(b["top_mass"], true), read_axis(b["higgs_mass"], true),
                           read_axis(b["alpha_s"], false), numbers(b["lambda6"]), numbers(b["lambda8"])}};
 }

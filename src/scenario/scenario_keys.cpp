@@ -11,6 +11,8 @@
 //   Semiclassical floor, QCD scale, trajectory cutoff, greybody grid: the physics modules' options
 //     hold them with their sources (TunnellingSetup, MassLossOptions, TrajectoryOptions,
 //     greybody::BuildOptions); the schema reads them from there.
+#include <fmt/format.h>
+
 #include <cmath>
 #include <utility>
 
@@ -21,6 +23,7 @@
 #include "ember/greybody/table.hpp"
 #include "ember/higgs/inputs.hpp"
 #include "ember/population/counts.hpp"
+#include "ember/scenario/scenario.hpp"
 #include "ember/scenario/schema.hpp"
 #include "ember/tunnelling/prescription.hpp"
 #include "ember/units/constants.hpp"
@@ -239,8 +242,18 @@ Key band_axis(std::string name, std::string meaning, Key sigma) {
 Key scan() {
   const higgs::MeasuredInputs& m = higgs::measured_inputs();
   Key masses = ordered(section("masses", "grid of formation (or characteristic) masses, logarithmic",
-                               {quantity("from", "lowest mass", units::mass, "g", "1 g", formable()),
-                                quantity("to", "highest mass", units::mass, "g", "1e15 g", formable()),
+                               {with_example(quantity("from",
+                                                      fmt::format("lowest mass; left out, the spectrum's own lowest "
+                                                                  "mass (monochromatic: {} g)",
+                                                                  format_real(monochromatic_scan_from_g)),
+                                                      units::mass, "g", std::nullopt, formable()),
+                                             "1 g"),
+                                with_example(quantity("to",
+                                                      fmt::format("highest mass; left out, the spectrum's own "
+                                                                  "highest mass (monochromatic: {} g)",
+                                                                  format_real(monochromatic_scan_to_g)),
+                                                      units::mass, "g", std::nullopt, formable()),
+                                             "1e15 g"),
                                 integer("points", "number of masses", "61", between(1, 100000))}),
                        {{"from", "to", false}});
   Key band = section(

@@ -69,7 +69,7 @@ stderr_has "read-only" "Read-only file system"
 
 # --- a cache that cannot be written: the run goes on, with one warning -----------------------------
 run "cache read-only" 0 -- "$ember" run "$grid" -o "$work/cache-ro" --no-plots --quiet --cache-dir "$work/ro/cache"
-[[ $(grep -c 'warning' "$work/err") == 1 ]] || fail "cache read-only: expected one warning, got: $(cat "$work/err")"
+[[ $(grep -c 'warning: the cache' "$work/err") == 1 ]] || fail "cache read-only: expected one warning, got: $(cat "$work/err")"
 stderr_has "cache read-only" "the cache in $work/ro/cache cannot be written"
 [[ -s "$work/cache-ro/summary.json" ]] || fail "cache read-only: no results"
 

@@ -132,6 +132,7 @@ struct JobResults {
   std::optional<std::string> cache_warning;       // the cache could not keep a table built here: why (the first)
   std::optional<std::string> checkpoint_warning;  // checkpointing stopped during the run: why
   std::vector<FailedPoint> failures;              // in scan order; empty when every point succeeded
+  std::vector<std::string> warnings;              // the scan's range against the scenario (stderr, summary.json)
   bool assembled = true;                          // false on MPI ranks that only computed
 };
 

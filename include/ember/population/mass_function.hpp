@@ -37,6 +37,10 @@ std::unique_ptr<MassFunction> power_law(double min_mass, double max_mass, double
 std::unique_ptr<MassFunction> critical_collapse(double cutoff_mass, double exponent);
 // mass_unit: g, kg, Msun, Mpl or GeV. Throws InputError naming the file and line.
 std::unique_ptr<MassFunction> tabulated(const std::string& file, const std::string& mass_unit);
+// The share of the spectrum's abundance (int psi dM) outside [from, to] (GeV): trapezoidal in
+// ln M on 4000 points over its own range; for a monochromatic spectrum 0 or 1.
+double share_outside(const MassFunction& spectrum, double from, double to);
+
 // The spectrum with no holes below `mass` (GeV), not renormalised: the holes cut away simply do
 // not exist, so N falls by their share. It shows how much of a verdict rests on the low tail.
 std::unique_ptr<MassFunction> cut_below(std::unique_ptr<MassFunction> spectrum, double mass);

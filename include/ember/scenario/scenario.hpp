@@ -96,8 +96,14 @@ struct TunnellingChoices {
 // --- cosmology, scan, exclusion, output --------------------------------------------------------
 using CosmologyInputs = cosmology::Parameters;  // h, Omega_b h^2, Omega_c h^2, T_CMB (GeV), N_eff
 
+// The scan's mass range. Either end left out follows the spectrum: an extended spectrum's own
+// range (MassFunction::low, high: all but a stated tiny share of its abundance), or for a
+// monochromatic spectrum the range below, where holes evaporate by today (common practice).
+inline constexpr double monochromatic_scan_from_g = 1, monochromatic_scan_to_g = 1e15;
+// An explicit range that leaves out more than this share of the scenario's abundance is warned of.
+inline constexpr double scan_abundance_cut = 1e-6;
 struct MassGrid {
-  double from, to;  // GeV
+  std::optional<double> from, to;  // GeV; none: follow the spectrum
   int points;
 };
 struct BandAxis {
