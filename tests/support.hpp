@@ -4,6 +4,8 @@
 #include <cmath>
 #include <filesystem>
 
+#include "ember/cosmology/background.hpp"
+
 namespace ember::testing {
 
 // The source tree (tests read its data/, configs/ and tests/data/); its path is compiled into
@@ -11,6 +13,9 @@ namespace ember::testing {
 // initialised after it.
 std::filesystem::path source_root();
 inline const std::filesystem::path source_dir = source_root();
+
+// The Planck 2018 background over the shipped g_* table, built once.
+const cosmology::Background& planck_background();
 
 // |a - b| <= rel |b|
 inline bool close(double a, double b, double rel = 1e-14) {

@@ -15,9 +15,7 @@ using ember::testing::source_dir;
 
 namespace {
 const cosmology::Background& background() {
-  static const cosmology::Background b(cosmology::planck2018(),
-                                       cosmology::DegreesOfFreedom::load(source_dir / "data/relativistic_dof.tsv"));
-  return b;
+  return ember::testing::planck_background();
 }
 double gram(double g) {
   return g * u::gram;

@@ -16,9 +16,7 @@ using ember::testing::source_dir;
 
 namespace {
 const cosmology::Background& background() {
-  static const cosmology::Background b(cosmology::planck2018(),
-                                       cosmology::DegreesOfFreedom::load(source_dir / "data/relativistic_dof.tsv"));
-  return b;
+  return ember::testing::planck_background();
 }
 const evaporation::MassLoss& mass_loss() {
   static const evaporation::MassLoss ml(greybody::load_table(source_dir / "data/greybody.tsv"),
