@@ -26,7 +26,7 @@ grep -q '^# scenario .*hash' "$work/run/constraint.csv" || fail "run demo: const
 cp "$work/run/summary.json" "$work/run-summary.json"
 run "run resolved checks" 0 -- "$ember" check "$work/run/resolved.yaml"
 if /usr/bin/python3 -c 'import matplotlib' 2>/dev/null; then
-  for f in constraint rates potential; do
+  for f in constraint rates potential contributions; do
     [[ -s "$work/run/$f.png" && -s "$work/run/$f.pdf" ]] || fail "run demo: plot $f missing"
   done
 fi
