@@ -39,6 +39,17 @@ double independent_count_per_beta(double mass) {
   return rho / mass * a_f * a_f * a_f * 4 * u::pi / 3 * chi * chi * chi;
 }
 
+// configs/higgs_sensitivity.yaml cut down: 3 masses, the central point and M_t at -2 and +2 sigma.
+scenario::LoadedScenario small_band() {
+  auto loaded = scenario::load_scenario_file(source_dir / "configs/higgs_sensitivity.yaml");
+  loaded.scenario.scan.masses.points = 3;
+  loaded.scenario.scan.band.top_mass.points = 2;
+  loaded.scenario.scan.band.higgs_mass.points = 1;
+  loaded.scenario.scan.band.alpha_s.points = 1;
+  loaded.scenario.scan.band.lambda6.clear();
+  return loaded;
+}
+
 }  // namespace
 
 TEST_CASE("a stable potential gives no constraint, and says so") {
@@ -59,12 +70,7 @@ TEST_CASE("a stable potential gives no constraint, and says so") {
 }
 
 TEST_CASE("results do not depend on the thread count") {
-  auto loaded = scenario::load_scenario_file(source_dir / "configs/higgs_sensitivity.yaml");
-  loaded.scenario.scan.masses.points = 3;
-  loaded.scenario.scan.band.top_mass.points = 2;
-  loaded.scenario.scan.band.higgs_mass.points = 1;
-  loaded.scenario.scan.band.alpha_s.points = 1;
-  loaded.scenario.scan.band.lambda6.clear();
+  auto loaded = small_band();
   // And the chunks of formation masses the work is shared out in (one row each, against the
   // default): a division of work only, so the same bits (derived).
   // With max_chunks = 1 the bound wins over rows_per_chunk: one chunk per table.
@@ -172,12 +178,7 @@ scan:
 TEST_CASE("a failed point is recorded with its reason, and the rest of the scan goes on") {
   // Derived (the job's contract: a failure is recorded, never fatal): failures are injected through
   // JobOptions::before_row, as a solver would throw them; every other number must equal the run without failures.
-  auto loaded = scenario::load_scenario_file(source_dir / "configs/higgs_sensitivity.yaml");
-  loaded.scenario.scan.masses.points = 3;
-  loaded.scenario.scan.band.top_mass.points = 2;
-  loaded.scenario.scan.band.higgs_mass.points = 1;
-  loaded.scenario.scan.band.alpha_s.points = 1;
-  loaded.scenario.scan.band.lambda6.clear();
+  auto loaded = small_band();
   loaded.scenario.tunnelling.prescriptions = {tunnelling::Prescription::probe_field};
   pipeline::JobOptions plain, failing;
   failing.before_row = [](std::size_t point, std::size_t, std::size_t row) {

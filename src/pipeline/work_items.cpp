@@ -18,10 +18,10 @@ std::string one_line(std::string text) {
 }
 
 namespace {
-// One formation mass's response (trajectory, hazard integral, light cone) against one
-// probe_field node: about 0.1 (0.2 to 0.6 ms against 4 ms, measured by scripts/bench;
-// docs/benchmarks.md).
-constexpr double response_cost = 0.1;
+// One formation mass's response (trajectory, hazard integrals with the hot era and the minimum
+// action, light cone) against one probe_field node: about 0.5 (1.8 ms against 3.8 ms, measured
+// by scripts/bench; docs/benchmarks.md).
+constexpr double response_cost = 0.5;
 // A table's top search: about six rough solves at half the cost of a node.
 constexpr double top_search_cost = 3;
 }  // namespace

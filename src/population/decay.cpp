@@ -123,13 +123,18 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
 
   const bool postpone = o.hot_era == HotEra::postpone;
   d.counted.hazard = qag(ratio, u_lo, u_hi, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
+  // Each distinct set of pieces is integrated once: the hot era and the minimum action usually
+  // restrict the hazard to the same pieces (or to none), and the whole range is the counted hazard.
+  std::vector<std::pair<std::vector<std::pair<double, double>>, double>> integrated{{{{u_lo, u_hi}}, d.counted.hazard}};
   const auto hazard_where = [&](const std::function<bool(const Sample&)>& kept) {
     const auto parts = pieces(
         grid, [&](double u) { return kept(sample(u)); }, kept);
-    if (parts.size() == 1 && parts[0] == std::pair{u_lo, u_hi}) return d.counted.hazard;  // kept throughout
+    for (const auto& [known, h] : integrated)
+      if (known == parts) return h;
     double h = 0;
     for (const auto& [a, c] : parts)
       h += qag(ratio, a, c, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
+    integrated.emplace_back(parts, h);
     return h;
   };
   d.postponed.hazard = hazard_where([](const Sample& s) { return s.cold; });

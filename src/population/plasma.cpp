@@ -21,11 +21,11 @@ PlasmaCheck check_plasma(const cosmology::Background& b, const higgs::StandardMo
   c.plasma_temperature = plasma_temperature(b, time);
   c.hawking_temperature = 1 / (8 * units::pi * newton_G * hole);
   c.colder_than_hole = c.plasma_temperature < c.hawking_temperature;
+  // (b) matters only where (a) holds: cold_enough needs both.
   const double phi = bubble.phi_horizon;
-  if (sm && phi > 0 && sm->value(phi) < 0) {
-    const double m2 = tunnelling::thermal_mass_squared(*sm, c.plasma_temperature);
-    c.field_kept = sm->value(phi) + 0.5 * m2 * phi * phi < 0;
-  }
+  if (!c.colder_than_hole || !sm || !(phi > 0)) return c;
+  if (const double v = sm->value(phi); v < 0)
+    c.field_kept = v + 0.5 * tunnelling::thermal_mass_squared(*sm, c.plasma_temperature) * phi * phi < 0;
   return c;
 }
 

@@ -41,7 +41,7 @@ struct PlasmaCheck {
   double plasma_temperature = 0;   // T_p, GeV
   double hawking_temperature = 0;  // T_H, GeV
   bool colder_than_hole = false;   // (a)
-  bool field_kept = true;          // (b); true where (b) does not apply
+  bool field_kept = true;          // (b); true where it does not apply, or where (a) already fails
   bool cold_enough() const { return colder_than_hole && field_kept; }
 };
 
