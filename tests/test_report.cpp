@@ -72,6 +72,9 @@ TEST_CASE("bands per point: 1 sigma inside 2 sigma inside the whole band, clean 
     CHECK(*row.beta_max <= *row.band1_high);
     CHECK(*row.band1_high <= *row.band2_high);
     CHECK(*row.band2_high <= *row.band_high);
+    // alpha_s has only its -2 and +2 sigma points here, so the 1 sigma band is the central point.
+    CHECK(*row.band1_low == *row.beta_max);
+    CHECK(*row.band1_high == *row.beta_max);
   }
   // Over M_t alone every evaporating hole here decays for certain (P_decay = 1) at every point,
   // so beta_max is the light-cone count's alone and the band is flat: the summary says why.
