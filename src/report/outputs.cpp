@@ -131,6 +131,26 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
   return out;
 }
 
+// One decay.csv row: a formation mass under one prescription.
+std::string decay_row(const pipeline::PrescriptionOutcome& o, std::size_t i) {
+  const population::Response& resp = o.scan[i];
+  const auto& d = resp.decay;
+  const auto share = [](double part, double whole) {
+    return whole > 0 ? std::optional<double>(std::clamp(1 - part / whole, 0.0, 1.0)) : std::nullopt;
+  };
+  std::string out = fmt::format("{:.8e},{:.8e},{:.8e},{},{},{}", resp.mass / u::gram, resp.formation.time / u::second,
+                                d.lifetime / u::second, d.evaporated ? "true" : "false",
+                                d.formed_below_floor ? "true" : "false", tunnelling::name_of(o.prescription));
+  out += fmt::format(",{:.8e},{},{},{},{}", d.probability, cell(d.hazard), cell(d.hazard_in_time),
+                     cell(d.crossover_mass ? std::optional<double>(*d.crossover_mass / u::gram) : std::nullopt),
+                     d.probability > 0 ? cell(d.decay_time / u::second) : std::string());
+  out += fmt::format(",{},{},{},{}", d.probability > 0 ? cell(d.plasma_at_decay) : std::string(),
+                     d.crossover_mass ? cell(d.plasma_at_crossover) : std::string(),
+                     cell(share(d.postponed.probability, d.counted.probability)),
+                     cell(share(d.probability_semiclassical, d.probability)));
+  return out + "," + (i < o.dn_dlnm.size() ? cell(o.dn_dlnm[i]) : std::string()) + "\n";
+}
+
 std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
   std::string out =
       csv_header(l, "decay along each mass-loss history",
@@ -152,40 +172,15 @@ std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResu
                   "dN_dlnM: the spectrum-weighted contribution to N per unit ln M at this formation mass "
                   "(extended spectra; it integrates to N over ln M); empty for a monochromatic population, whose "
                   "N all comes from its one mass",
+                  "rows: one per prescription and formation mass (long form), prescription by prescription",
                   "empty cell: none (no crossover, or no decay)"});
-  out += "formation_mass_g,formation_time_s,lifetime_s,evaporated,formed_below_floor";
+  out +=
+      "formation_mass_g,formation_time_s,lifetime_s,evaporated,formed_below_floor,prescription,P_decay,hazard,"
+      "hazard_time,crossover_mass_g,decay_time_s,plasma_T_decay_GeV,plasma_T_crossover_GeV,hot_era_share,"
+      "low_action_share,dN_dlnM\n";
+  // Long (tidy) form: one row per prescription and formation mass, prescription by prescription.
   for (const auto& o : r.outcomes)
-    out += fmt::format(
-        ",P_decay_{0},hazard_{0},hazard_time_{0},crossover_mass_g_{0},decay_time_s_{0},plasma_T_decay_GeV_{0},"
-        "plasma_T_crossover_GeV_{0},hot_era_share_{0},low_action_share_{0},dN_dlnM_{0}",
-        tunnelling::name_of(o.prescription));
-  out += "\n";
-  const std::size_t rows = r.outcomes.empty() ? 0 : r.outcomes.front().scan.size();
-  for (std::size_t i = 0; i < rows; ++i) {
-    const auto& first = r.outcomes.front().scan[i];
-    out += fmt::format("{:.8e},{:.8e},{:.8e},{},{}", first.mass / u::gram, first.formation.time / u::second,
-                       first.decay.lifetime / u::second, first.decay.evaporated ? "true" : "false",
-                       first.decay.formed_below_floor ? "true" : "false");
-    for (const auto& o : r.outcomes) {
-      if (i >= o.scan.size()) {
-        out += ",,,,,,,,,,";
-        continue;
-      }
-      const auto& d = o.scan[i].decay;
-      const auto share = [](double part, double whole) {
-        return whole > 0 ? std::optional<double>(std::clamp(1 - part / whole, 0.0, 1.0)) : std::nullopt;
-      };
-      out += fmt::format(",{:.8e},{},{},{},{}", d.probability, cell(d.hazard), cell(d.hazard_in_time),
-                         cell(d.crossover_mass ? std::optional<double>(*d.crossover_mass / u::gram) : std::nullopt),
-                         d.probability > 0 ? cell(d.decay_time / u::second) : std::string());
-      out += fmt::format(",{},{},{},{}", d.probability > 0 ? cell(d.plasma_at_decay) : std::string(),
-                         d.crossover_mass ? cell(d.plasma_at_crossover) : std::string(),
-                         cell(share(d.postponed.probability, d.counted.probability)),
-                         cell(share(d.probability_semiclassical, d.probability)));
-      out += "," + (i < o.dn_dlnm.size() ? cell(o.dn_dlnm[i]) : std::string());
-    }
-    out += "\n";
-  }
+    for (std::size_t i = 0; i < o.scan.size(); ++i) out += decay_row(o, i);
   return out;
 }
 

@@ -80,7 +80,7 @@ nlohmann::ordered_json where_from_json(const scenario::Scenario& s, const pipeli
           {"median_g", o.range90->median / units::gram},
           {"median_widths_below_peak", below ? nlohmann::ordered_json(*below) : nlohmann::ordered_json()},
           {"rests_on_low_tail", below && *below > tail_widths},
-          {"per_mass", "decay.csv, column dN_dlnM"}};
+          {"per_mass", "decay.csv, column dN_dlnM (rows of this prescription)"}};
 }
 
 std::string where_from_text(const scenario::Scenario& s, const pipeline::JobResults& r) {
