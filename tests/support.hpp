@@ -5,6 +5,7 @@
 #include <filesystem>
 
 #include "ember/cosmology/background.hpp"
+#include "ember/scenario/scenario.hpp"
 
 namespace ember::testing {
 
@@ -20,6 +21,13 @@ const cosmology::Background& planck_background();
 // |a - b| <= rel |b|
 inline bool close(double a, double b, double rel = 1e-14) {
   return std::abs(a - b) <= rel * std::abs(b);
+}
+
+// The scenario without its threshold searches (scan.thresholds), for tests that check something
+// else: each search evaluates the scenario at a dozen or more other Higgs inputs.
+inline scenario::Scenario no_thresholds(scenario::Scenario s) {
+  s.scan.thresholds.inputs.clear();
+  return s;
 }
 
 }  // namespace ember::testing

@@ -19,6 +19,7 @@
 using namespace ember;
 namespace u = ember::units;
 using ember::testing::close;
+using ember::testing::no_thresholds;
 using ember::testing::source_dir;
 
 namespace {
@@ -59,7 +60,7 @@ TEST_CASE("a stable potential gives no constraint, and says so") {
       "standard_model: {top_mass: 168 GeV}\ntunnelling: {prescriptions: [probe_field, hot_bubble]}\n"
       "scan: {masses: {from: 1 g, to: 1e12 g, points: 4}}\n",
       "stable.yaml", ".");
-  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  const pipeline::JobResults r = pipeline::run_job(no_thresholds(loaded.scenario));
   CHECK(r.no_constraint);
   CHECK(r.no_constraint_reason.find("stable") != std::string::npos);
   for (const auto& o : r.outcomes) {
@@ -81,9 +82,9 @@ TEST_CASE("results do not depend on the thread count") {
   fine.rows_per_chunk = 1;
   bounded.rows_per_chunk = 1;
   bounded.max_chunks = 1;
-  const pipeline::JobResults a = pipeline::run_job(loaded.scenario, one);
+  const pipeline::JobResults a = pipeline::run_job(no_thresholds(loaded.scenario), one);
   for (const auto* options : {&two, &fine, &bounded}) {
-    const pipeline::JobResults b = pipeline::run_job(loaded.scenario, *options);
+    const pipeline::JobResults b = pipeline::run_job(no_thresholds(loaded.scenario), *options);
     REQUIRE(a.outcomes.size() == b.outcomes.size());
     for (std::size_t k = 0; k < a.outcomes.size(); ++k) {
       CHECK(a.outcomes[k].counts.lightcone == b.outcomes[k].counts.lightcone);  // bit for bit
@@ -113,10 +114,10 @@ TEST_CASE("checkpoint files stay bounded however fine the grid, and a rerun resu
   pipeline::JobOptions o;
   o.table_points = 8;  // bookkeeping only: the table's accuracy is not what is tested
   o.checkpoint = pipeline::CheckpointOptions{dir, "bound test", false};
-  const pipeline::JobResults first = pipeline::run_job(loaded.scenario, o);
+  const pipeline::JobResults first = pipeline::run_job(no_thresholds(loaded.scenario), o);
   const auto files = static_cast<int>(std::distance(std::filesystem::directory_iterator(dir), {}));
   CHECK(files == 1 + 1 + o.max_chunks);
-  const pipeline::JobResults again = pipeline::run_job(loaded.scenario, o);
+  const pipeline::JobResults again = pipeline::run_job(no_thresholds(loaded.scenario), o);
   CHECK(again.items_resumed == 1 + o.max_chunks);
   REQUIRE(first.outcomes.at(0).curve.size() == 3000);
   for (std::size_t r = 0; r < 3000; ++r)
@@ -142,7 +143,7 @@ scan:
     lambda6: [3.0]
 )",
                                                    "band.yaml", ".");
-  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  const pipeline::JobResults r = pipeline::run_job(no_thresholds(loaded.scenario));
   // The central point, then 3 top masses x {0, 3} for lambda6 less the central one: 6 points.
   REQUIRE(r.band.size() == 6);
   int stable = 0, with_lambda6 = 0;
@@ -185,8 +186,8 @@ TEST_CASE("a failed point is recorded with its reason, and the rest of the scan 
     if (point == 1 && row == 1) throw ember::NumericalError("test solver", "injected at row 1 of point 1");
     if (point == 0 && row == 3) throw ember::NumericalError("test solver", "injected in the central counts");
   };
-  const pipeline::JobResults a = pipeline::run_job(loaded.scenario, plain);
-  const pipeline::JobResults b = pipeline::run_job(loaded.scenario, failing);
+  const pipeline::JobResults a = pipeline::run_job(no_thresholds(loaded.scenario), plain);
+  const pipeline::JobResults b = pipeline::run_job(no_thresholds(loaded.scenario), failing);
   CHECK(a.failures.empty());
   REQUIRE(b.failures.size() == 2);
   // In scan order: the central point's unit, then point 1's row 1.
@@ -226,7 +227,7 @@ TEST_CASE("end to end: where every hole decays, N is beta times the holes formed
   loaded.scenario.population.spectrum = scenario::Monochromatic{mass};
   loaded.scenario.population.abundance = {population::AbundanceMeasure::beta, beta};
   loaded.scenario.scan.masses.points = 4;
-  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  const pipeline::JobResults r = pipeline::run_job(no_thresholds(loaded.scenario));
   REQUIRE(r.stability);
   CHECK(r.stability->verdict == higgs::Verdict::metastable);
   const double holes = beta * independent_count_per_beta(mass);
@@ -253,7 +254,7 @@ TEST_CASE("end to end on the demo as shipped: the lognormal's count follows from
   // (the lognormal's mean of M_c/M, derived), with K from the independent estimate above.
   auto loaded = scenario::load_scenario_file(source_dir / "configs/demo.yaml");
   loaded.scenario.scan.masses.points = 4;
-  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  const pipeline::JobResults r = pipeline::run_job(no_thresholds(loaded.scenario));
   const double beta = 1e-22, peak = 1e9 * u::gram, sigma = 0.7;  // configs/demo.yaml
   const double expected = beta * independent_count_per_beta(peak) * std::exp(sigma * sigma / 2);
   for (const auto& o : r.outcomes)
@@ -272,7 +273,7 @@ pipeline::JobResults monochromatic_run(const std::string& mass, const std::strin
           "}\n  abundance: {measure: beta, value: 1e-30}\ntunnelling: {prescriptions: [probe_field], " + tunnelling +
           "}\nscan: {masses: {from: 1 g, to: 1e4 g, points: 2}}\n",
       "hot_era.yaml", ".");
-  return pipeline::run_job(loaded.scenario);
+  return pipeline::run_job(no_thresholds(loaded.scenario));
 }
 }  // namespace
 
@@ -331,14 +332,14 @@ TEST_CASE("where the decays come from: an asteroid-mass lognormal is constrained
   // MacGibbon, Carr & Page, PRD 78 (2008) 064043, from memory). For a lognormal peaked at 1e17 g
   // that is the far low tail.
   const auto run = [](const std::string& cut) {
-    return pipeline::run_job(
+    return pipeline::run_job(no_thresholds(
         scenario::load_scenario_text(
             "population:\n  spectrum: {shape: lognormal, peak_mass: 1e17 g, width: 1}\n  abundance: {measure: f_pbh, "
             "value: 1e-3}\n" +
                 cut +
                 "tunnelling: {prescriptions: [probe_field]}\nscan: {masses: {from: 1e17 g, to: 1e17 g, points: 1}}\n",
             "tail.yaml", ".")
-            .scenario);
+            .scenario));
   };
   const pipeline::JobResults r = run("");
   const pipeline::PrescriptionOutcome& o = r.outcomes.at(0);
@@ -367,13 +368,13 @@ TEST_CASE("where the decays come from: an asteroid-mass lognormal is constrained
 TEST_CASE("the scan follows the spectrum by default, and an explicit range that misses it is warned of") {
   const auto run = [](const std::string& masses) {
     return pipeline::run_job(
-        scenario::load_scenario_text(
-            "population:\n  spectrum: {shape: lognormal, peak_mass: 1e16 g, width: 0.5}\n"
-            "  abundance: {measure: f_pbh, value: 1e-3}\ntunnelling: {prescriptions: [probe_field]}\n"
-            "scan: {masses: " +
-                masses + "}\n",
-            "scan.yaml", ".")
-            .scenario);
+        no_thresholds(scenario::load_scenario_text(
+                          "population:\n  spectrum: {shape: lognormal, peak_mass: 1e16 g, width: 0.5}\n"
+                          "  abundance: {measure: f_pbh, value: 1e-3}\ntunnelling: {prescriptions: [probe_field]}\n"
+                          "scan: {masses: " +
+                              masses + "}\n",
+                          "scan.yaml", ".")
+                          .scenario));
   };
   // Left out, the range is the spectrum's own: the lognormal's 7.5 widths either side of its peak
   // (population/mass_function.cpp: 1e-13 of its weight outside), and nothing is warned of.
@@ -388,4 +389,80 @@ TEST_CASE("the scan follows the spectrum by default, and an explicit range that 
   REQUIRE(cut.warnings.size() == 2);
   CHECK(cut.warnings[0].find("misses the scenario's own characteristic mass") != std::string::npos);
   CHECK(cut.warnings[1].find("of the spectrum's abundance lies outside") != std::string::npos);
+}
+
+namespace {
+// A light monochromatic population under probe_field (invented numbers), with a top-mass
+// threshold search: `extra` adds keys to its scan section.
+scenario::LoadedScenario threshold_scenario(const std::string& extra, double top_mass = 172.57) {
+  return scenario::load_scenario_text(
+      fmt::format("population:\n  spectrum: {{shape: monochromatic, mass: 1e9 g}}\n"
+                  "  abundance: {{measure: beta, value: 1e-22}}\nstandard_model: {{top_mass: {} GeV}}\n"
+                  "tunnelling: {{prescriptions: [probe_field]}}\n"
+                  "scan:\n  masses: {{from: 1e9 g, to: 1e9 g, points: 1}}\n{}",
+                  top_mass, extra),
+      "thresholds.yaml", ".");
+}
+
+double largest_ratio(const pipeline::PrescriptionOutcome& o) {
+  double m = 0;
+  for (const double r : o.plot_ratio) m = std::max(m, r);
+  return m;
+}
+}  // namespace
+
+TEST_CASE("top-mass thresholds: the verdict flips where the search says, on either side by the main job") {
+  const auto loaded = threshold_scenario("  thresholds: {inputs: [top_mass], points: 7}\n");
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  REQUIRE(r.thresholds.size() == 1);
+  const pipeline::InputThresholds& in = r.thresholds[0];
+  REQUIRE(in.critical_top_mass);
+  // The window reaches one sigma below the critical top mass; the tolerance is 0.02 sigma.
+  CHECK(in.from <= *in.critical_top_mass - in.sigma + 1e-12);
+  CHECK(close(in.tolerance, 0.02 * 0.29, 1e-12));  // sigma: data/standard_model.yaml (PDG 2024)
+  REQUIRE(in.prescriptions.size() == 1);
+  const pipeline::Threshold& flip = in.prescriptions[0].exclusion;
+  const pipeline::Threshold& outruns = in.prescriptions[0].outruns;
+  REQUIRE(flip.value);
+  REQUIRE(outruns.value);
+  CAPTURE(*flip.value);
+  CAPTURE(*outruns.value);
+  CHECK(flip.note.find("excluded above") != std::string::npos);
+  // Below the critical top mass the potential is stable: no bubble, no decay.
+  for (const auto& s : in.samples)
+    if (s.value < *in.critical_top_mass && s.lightcone) CHECK(*s.lightcone == 0);
+  CHECK(*flip.value > *in.critical_top_mass);
+  // The scenario's own value is on the grid: its N is the main job's, exactly (same path).
+  bool central_seen = false;
+  for (const auto& s : in.samples)
+    if (s.grid && std::abs(s.value - in.central) < 1e-9) {
+      central_seen = true;
+      REQUIRE(s.lightcone);
+      CHECK(close(*s.lightcone, r.outcomes.at(0).counts.lightcone, 1e-12));
+    }
+  CHECK(central_seen);
+  // The main job run at the threshold plus and minus two tolerances, with no search: excluded
+  // above, allowed below; and Gamma_D outruns Gamma_H somewhere above the outruns threshold only.
+  const auto at = [&](double mt) {
+    return pipeline::run_job(no_thresholds(threshold_scenario("", mt).scenario)).outcomes.at(0);
+  };
+  const double step = 2 * in.tolerance;
+  CHECK(at(*flip.value + step).excluded);
+  CHECK_FALSE(at(*flip.value - step).excluded);
+  CHECK(largest_ratio(at(*outruns.value + step)) > 1);
+  CHECK(largest_ratio(at(*outruns.value - step)) < 1);
+}
+
+TEST_CASE("an alpha_s threshold runs the other way: a larger alpha_s makes the vacuum more stable") {
+  // A larger alpha_s lowers the top Yukawa coupling at high scales and lifts lambda (Buttazzo et
+  // al., JHEP 12 (2013) 089, eq. 65: the critical top mass rises with alpha_s; from memory).
+  const auto loaded = threshold_scenario("  thresholds: {inputs: [alpha_s], points: 7, span: 12}\n");
+  const pipeline::JobResults r = pipeline::run_job(loaded.scenario);
+  REQUIRE(r.thresholds.size() == 1);
+  const pipeline::InputThresholds& in = r.thresholds[0];
+  CHECK_FALSE(in.critical_top_mass);
+  const pipeline::Threshold& flip = in.prescriptions.at(0).exclusion;
+  REQUIRE(flip.value);
+  CHECK(flip.note.find("allowed above") != std::string::npos);
+  CHECK(*flip.value > in.central);
 }

@@ -11,6 +11,7 @@
 
 using namespace ember;
 using ember::testing::close;
+using ember::testing::no_thresholds;
 
 namespace {
 scenario::LoadedScenario lognormal(const std::string& value) {
@@ -27,7 +28,7 @@ TEST_CASE("the largest allowed abundance is the one that gives N = max_decays") 
   // Counts are linear in the abundance (population/counts.hpp, derived): rerunning the scenario at
   // its own largest allowed f_PBH must give N = max_decays = 1, and the margin is N itself.
   const scenario::LoadedScenario first = lognormal("1e-20");
-  const pipeline::JobResults r = pipeline::run_job(first.scenario);
+  const pipeline::JobResults r = pipeline::run_job(no_thresholds(first.scenario));
   const auto j = report::summary_json(first, r)["prescriptions"]["probe_field"];
   const double n = j["N_lightcone"].get<double>();
   REQUIRE(n > 1);  // excluded at f = 1e-20 (an evaporated 1e9 g population)
@@ -35,7 +36,7 @@ TEST_CASE("the largest allowed abundance is the one that gives N = max_decays") 
   CHECK(j["verdict"].get<std::string>().rfind("EXCLUDED by a factor", 0) == 0);
   const double f_allowed = j["largest_allowed"]["f_pbh"].get<double>();
   const scenario::LoadedScenario again = lognormal(fmt::format("{:.17g}", f_allowed));
-  const pipeline::JobResults r2 = pipeline::run_job(again.scenario);
+  const pipeline::JobResults r2 = pipeline::run_job(no_thresholds(again.scenario));
   CHECK(close(r2.outcomes.at(0).counts.lightcone, 1.0, 1e-9));
   const auto j2 = report::summary_json(again, r2)["prescriptions"]["probe_field"];
   CHECK(close(j2["largest_allowed"]["beta"].get<double>(), j["largest_allowed"]["beta"].get<double>(), 1e-9));
@@ -48,7 +49,7 @@ pipeline::JobResults band_run(const std::string& band, scenario::LoadedScenario&
       "tunnelling: {prescriptions: [probe_field]}\nscan:\n  masses: {from: 10 g, to: 1e12 g, points: 3}\n  band: " +
           band + "\n",
       "band.yaml", ".");
-  return pipeline::run_job(loaded.scenario);
+  return pipeline::run_job(no_thresholds(loaded.scenario));
 }
 }  // namespace
 

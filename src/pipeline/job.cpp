@@ -17,6 +17,7 @@
 #include "ember/greybody/table_cache.hpp"
 #include "ember/population/thermal_baseline.hpp"
 #include "ember/version.hpp"
+#include "thresholds.hpp"
 
 namespace ember::pipeline {
 
@@ -127,6 +128,7 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   if (!out.assembled) return out;  // an MPI rank that only computed
   detail::assemble(plan, done, out);
   out.thermal_baseline = thermal_baseline_of(plan);
+  out.thresholds = detail::find_thresholds(plan);
   out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   return out;
 }

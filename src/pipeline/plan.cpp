@@ -85,6 +85,8 @@ std::vector<HiggsPoint> higgs_points(const StandardModelInputs& sm, const ScanCh
   return out;
 }
 
+}  // namespace
+
 PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
   PointModel m;
   if (const auto* form = std::get_if<StandardModelForm>(&sm.potential)) {
@@ -109,6 +111,8 @@ PointModel model_for(const HiggsPoint& hp, const StandardModelInputs& sm) {
   }
   return m;
 }
+
+namespace {
 
 // An explicit scan range that misses the scenario's own (peak) mass, or leaves out more than a
 // stated share of its abundance, shows a constraint curve that is not about this scenario.

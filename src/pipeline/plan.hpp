@@ -80,6 +80,9 @@ struct JobPlan {
   std::pair<std::size_t, std::size_t> chunking() const;
 };
 
+// A Higgs point's potential and verdict, under the scenario's choice of potential.
+PointModel model_for(const HiggsPoint& point, const scenario::StandardModelInputs& sm);
+
 // The plan for a scenario. `spectrum` receives the description of the spectrum as integrated.
 // NumericalError only when the central point's potential fails (a band point's failure is kept
 // in its model).

@@ -26,6 +26,24 @@ constexpr double response_cost = 0.5;
 constexpr double top_search_cost = 3;
 }  // namespace
 
+tunnelling::TunnellingSetup setup_for(const scenario::Scenario& s, const PointModel& model) {
+  tunnelling::TunnellingSetup setup;
+  setup.potential = model.potential.get();
+  setup.standard_model = model.sm;
+  if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
+    setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
+  setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
+  setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
+  setup.minimum_action = s.tunnelling.minimum_action;
+  return setup;
+}
+
+population::ResponseContext context_for(const JobPlan& plan, const PointModel& model) {
+  population::ResponseContext c = plan.context;
+  c.standard_model = model.sm;
+  return c;
+}
+
 double expected_cost(const JobPlan& plan, const WorkItem& w) {
   const PointModel& model = plan.models[w.point];
   const Prescription p = plan.prescription(w);
@@ -41,7 +59,6 @@ double expected_cost(const JobPlan& plan, const WorkItem& w) {
 }
 
 std::string table_work(const JobPlan& plan, const WorkItem& w) {
-  const scenario::Scenario& s = *plan.scenario;
   const PointModel& model = plan.models[w.point];
   const Prescription p = plan.prescription(w);
   TableRecord r;
@@ -54,16 +71,8 @@ std::string table_work(const JobPlan& plan, const WorkItem& w) {
   // read it (thin_wall: its own wall).
   if (model.no_decay && tunnelling::needs(p).potential) return to_text(r);
   try {
-    tunnelling::TunnellingSetup setup;
-    setup.potential = model.potential.get();
-    setup.standard_model = model.sm;
-    if (s.tunnelling.wall_tension && s.tunnelling.energy_gap)
-      setup.thin_wall = tunnelling::ThinWall{*s.tunnelling.wall_tension, *s.tunnelling.energy_gap};
-    setup.semiclassical_floor = s.tunnelling.semiclassical_floor;
-    setup.hot_bubble_volume = s.tunnelling.hot_bubble_volume;
-    setup.minimum_action = s.tunnelling.minimum_action;
-    const tunnelling::CachedTable cached =
-        tunnelling::cached_action_table(p, setup, plan.table_options, plan.options->cache_directory);
+    const tunnelling::CachedTable cached = tunnelling::cached_action_table(
+        p, setup_for(*plan.scenario, model), plan.table_options, plan.options->cache_directory);
     r.state = TableRecord::State::table;
     r.cache_hit = cached.hit;
     r.cache_failure = cached.store_failure.value_or("");
@@ -87,9 +96,7 @@ void drop_unphysical(std::optional<double>& beta, std::optional<double>& f) {
 // The response context at one Higgs point: its own Standard Model potential sets the plasma's
 // thermal mass (population/plasma.hpp).
 population::ResponseContext context_at(const JobPlan& plan, std::size_t point) {
-  population::ResponseContext c = plan.context;
-  c.standard_model = plan.models[point].sm;
-  return c;
+  return context_for(plan, plan.models[point]);
 }
 
 void monochromatic_rows(const JobPlan& plan, const WorkItem& w, const tunnelling::ActionTable& table, std::size_t begin,

@@ -22,6 +22,11 @@ using Tables = std::vector<std::optional<tunnelling::ActionTable>>;
 // progress estimate (the results never depend on it).
 double expected_cost(const JobPlan& plan, const WorkItem& item);
 
+// The tunnelling setup of a Higgs point's potential under the scenario's choices (a B(M) table's
+// input), and the response context at that point (its potential sets the plasma's thermal mass).
+tunnelling::TunnellingSetup setup_for(const scenario::Scenario& s, const PointModel& model);
+population::ResponseContext context_for(const JobPlan& plan, const PointModel& model);
+
 std::string table_work(const JobPlan& plan, const WorkItem& item);
 std::string chunk_work(const JobPlan& plan, const Tables& tables, const WorkItem& item);
 // One (Higgs point, prescription) from its table and chunks, with the central point's own counts

@@ -16,6 +16,7 @@
 #include "ember/core/text.hpp"
 #include "ember/units/constants.hpp"
 #include "ember/version.hpp"
+#include "thresholds.hpp"
 #include "verdict.hpp"
 
 namespace ember::report {
@@ -264,6 +265,7 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["scenario_hash"] = scenario::scenario_hash(l);
   j["title"] = l.scenario.title;
   j["prescriptions"] = nullptr;  // filled below; the verdict leads the file
+  j["sensitivity"] = detail::sensitivity_json(r);
   j["warnings"] = r.warnings;
   j["definitions"] = {
       {"N_lightcone", "expected seeded decays in our past light cone"},
@@ -309,11 +311,13 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["no_constraint"] = r.no_constraint;
   if (r.no_constraint) j["no_constraint_reason"] = r.no_constraint_reason;
   ordered_json ps = ordered_json::object();
-  for (const auto& o : r.outcomes) {
+  for (std::size_t k = 0; k < r.outcomes.size(); ++k) {
+    const pipeline::PrescriptionOutcome& o = r.outcomes[k];
     const double evaporated_share = o.counts.lightcone > 0 ? o.counts.from_evaporated / o.counts.lightcone : 0.0;
     ordered_json p = {{"N_lightcone", o.counts.lightcone}};
     p.update(detail::verdict_json(o, l.scenario.exclusion.max_decays));
     if (o.range90) p["where_from"] = detail::where_from_json(l.scenario, o);  // extended spectra with decays
+    p.update(detail::prescription_thresholds_json(r, k));
     p.update(ordered_json{
         {"N_hubble", o.counts.hubble},
         {"survival_probability", o.survival},
@@ -402,6 +406,7 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
   if (r.no_constraint) t += fmt::format("  no constraint: {}\n", r.no_constraint_reason);
   t += detail::verdict_text(r, l.scenario.exclusion.max_decays);
   t += detail::where_from_text(l.scenario, r);
+  t += detail::thresholds_text(r);
   const bool postpone = l.scenario.tunnelling.hot_era == population::HotEra::postpone;
   t += fmt::format("  hot era ({}): N with the hot era {}:", postpone ? "postponed" : "counted",
                    postpone ? "counted instead" : "postponed instead");
@@ -479,6 +484,21 @@ Written write_outputs(const scenario::LoadedScenario& l, const pipeline::JobResu
                                                     "f_PBH measure) over its allowed value, times max_decays; "
                                                     "N_scenario: the scenario's own N at this point",
                                                     "empty cell: no constraint there, or not computed"})));
+  if (wants(s, "sensitivity") && !r.thresholds.empty())
+    texts.emplace_back(
+        "sensitivity.csv",
+        detail::sensitivity_csv(
+            l, r,
+            csv_header(
+                l, "the scenario's N against one Standard Model input at a time",
+                {"units: value in GeV for top_mass and higgs_mass, dimensionless for alpha_s; offset_sigma = "
+                 "(value - central) / sigma",
+                 "N_lightcone: the scenario's own expected decays in our past light cone at that value, the "
+                 "other inputs at the scenario's values; max_decay_to_evaporation: the largest Gamma_D / "
+                 "Gamma_H over the seed masses",
+                 "refinement = 1: an evaluation of a root search (0: the window's grid); N_lightcone is empty on "
+                 "the refinements of the outruns threshold (not needed there); failed = 1: a solver failed "
+                 "there (empty cells)"})));
   if (wants(s, "resolved")) texts.emplace_back("resolved.yaml", scenario::resolved_yaml(l));
   if (wants(s, "plots")) {
     texts.emplace_back("rates.csv", rates_csv(l, r));

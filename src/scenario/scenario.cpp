@@ -95,12 +95,22 @@ BandAxis read_axis(const YAML::Node& n, bool is_mass) {
   return BandAxis{is_mass ? mass(n["sigma"]) : num(n["sigma"]), num(n["span"]), whole(n["points"])};
 }
 
+Thresholds read_thresholds(const YAML::Node& n) {
+  Thresholds t{{}, num(n["span"]), whole(n["points"]), num(n["tolerance"])};
+  for (const std::string& w : words(n["inputs"]))
+    t.inputs.push_back(w == "top_mass"     ? ThresholdInput::top_mass
+                       : w == "higgs_mass" ? ThresholdInput::higgs_mass
+                                           : ThresholdInput::alpha_s);
+  return t;
+}
+
 ScanChoices read_scan(const YAML::Node& n) {
   const YAML::Node m = n["masses"], b = n["band"];
   const auto end = [&](const char* key) { return m[key] ? std::optional<double>(mass(m[key])) : std::nullopt; };
   return ScanChoices{MassGrid{end("from"), end("to"), whole(m["points"])}, numbers(n["widths"]),
                      Band{read_axis(b["top_mass"], true), read_axis(b["higgs_mass"], true),
-                          read_axis(b["alpha_s"], false), numbers(b["lambda6"]), numbers(b["lambda8"])}};
+                          read_axis(b["alpha_s"], false), numbers(b["lambda6"]), numbers(b["lambda8"])},
+                     read_thresholds(n["thresholds"])};
 }
 
 // N > max_decays; a confidence level CL is the same rule at max_decays = -ln(1 - CL) (e^-N < 1 - CL).
@@ -110,6 +120,15 @@ ExclusionRule exclusion_rule(const YAML::Node& n) {
 }
 
 }  // namespace
+
+std::string name_of(ThresholdInput input) {
+  switch (input) {
+    case ThresholdInput::top_mass: return "top_mass";
+    case ThresholdInput::higgs_mass: return "higgs_mass";
+    case ThresholdInput::alpha_s: return "alpha_s";
+  }
+  return "?";
+}
 
 Scenario read_scenario(const YAML::Node& r) {
   const YAML::Node pop = r["population"], sm = r["standard_model"], ev = r["evaporation"], cos = r["cosmology"],

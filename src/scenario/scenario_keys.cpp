@@ -139,17 +139,17 @@ Key standard_model() {
       },
       "standard_model");
 
-  return section(
-      "standard_model", "the inputs that fix the Higgs potential",
-      {quantity("top_mass", "top-quark pole mass M_t", units::mass, "GeV", gev(m.top_mass.value), between(150, 200)),
-       quantity("higgs_mass", "Higgs-boson pole mass M_h", units::mass, "GeV", gev(m.higgs_mass.value),
-                between(100, 150)),
-       number("alpha_s", "strong coupling alpha_s(M_Z), MS-bar, five flavours", format_real(m.alpha_s.value),
-              between(0.1, 0.14)),
-       quantity("w_mass", "W-boson pole mass M_W", units::mass, "GeV", gev(m.w_mass.value), between(75, 85)),
-       integer("loops", "renormalisation-group running: " + higgs::loop_order_choices(),
-               std::to_string(higgs::Inputs{}.loops), between(1, 3)),
-       potential});
+  return section("standard_model", "the inputs that fix the Higgs potential",
+                 {quantity("top_mass", "top-quark pole mass M_t", units::mass, "GeV", gev(m.top_mass.value),
+                           between(top_mass_accepted.low, top_mass_accepted.high)),
+                  quantity("higgs_mass", "Higgs-boson pole mass M_h", units::mass, "GeV", gev(m.higgs_mass.value),
+                           between(higgs_mass_accepted.low, higgs_mass_accepted.high)),
+                  number("alpha_s", "strong coupling alpha_s(M_Z), MS-bar, five flavours", format_real(m.alpha_s.value),
+                         between(alpha_s_accepted.low, alpha_s_accepted.high)),
+                  quantity("w_mass", "W-boson pole mass M_W", units::mass, "GeV", gev(m.w_mass.value), between(75, 85)),
+                  integer("loops", "renormalisation-group running: " + higgs::loop_order_choices(),
+                          std::to_string(higgs::Inputs{}.loops), between(1, 3)),
+                  potential});
 }
 
 Key evaporation() {
@@ -272,10 +272,23 @@ Key scan() {
                    "extra values of lambda8 (of h^8 / (8 Mbar_Pl^4), Mbar_Pl the reduced Planck mass) to scan; empty "
                    "for none",
                    any_value())});
+  Key thresholds = section(
+      "thresholds",
+      "where the verdict flips as one Standard Model input moves (the others at the scenario's values), per "
+      "prescription, found by root-finding; also where seeded decay stops outrunning evaporation at every seed mass",
+      {option_list("inputs", "inputs to search; empty for none", {"top_mass", "higgs_mass", "alpha_s"}, {"top_mass"},
+                   0),
+       number("span",
+              "half-width of the search window around the scenario's value, in units of the input's sigma "
+              "(scan.band.<input>.sigma); the top-mass window also reaches down past the critical top mass",
+              "8", between(0.5, 100)),
+       integer("points", "evaluations across the window, which bracket the roots and draw the sensitivity figure", "9",
+               between(3, 1001)),
+       number("tolerance", "on each root, in units of the input's sigma", "0.02", between(1e-6, 1))});
   return section(
       "scan", "what to scan",
-      {masses, number_list("widths", "lognormal widths to scan; empty for the spectrum's own", between(0.01, 10)),
-       band});
+      {masses, number_list("widths", "lognormal widths to scan; empty for the spectrum's own", between(0.01, 10)), band,
+       thresholds});
 }
 
 Key exclusion() {
@@ -292,14 +305,15 @@ Key exclusion() {
 }
 
 Key output() {
-  return section("output", "what to write",
-                 {output_path("directory", "folder for results, relative to the current folder", "ember-out"),
-                  option_list("files",
-                              "result files to write (band: band.csv, written when the band has more than "
-                              "one point)",
-                              {"summary", "constraint", "decay", "band", "resolved", "plots"},
-                              {"summary", "constraint", "decay", "band", "resolved", "plots"}),
-                  option_list("plot_formats", "image formats for plots", {"png", "pdf", "svg"}, {"png", "pdf"})});
+  return section(
+      "output", "what to write",
+      {output_path("directory", "folder for results, relative to the current folder", "ember-out"),
+       option_list("files",
+                   "result files to write (band: band.csv, written when the band has more than "
+                   "one point; sensitivity: sensitivity.csv, written when scan.thresholds searches an input)",
+                   {"summary", "constraint", "decay", "band", "sensitivity", "resolved", "plots"},
+                   {"summary", "constraint", "decay", "band", "sensitivity", "resolved", "plots"}),
+       option_list("plot_formats", "image formats for plots", {"png", "pdf", "svg"}, {"png", "pdf"})});
 }
 
 }  // namespace

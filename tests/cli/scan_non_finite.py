@@ -19,7 +19,10 @@ NULLABLE = {"instability_scale_GeV", "log10_expected_decays", "log10_decay_proba
             "operator_action_first_order", "operator_fraction_first_order", "B", "output", "beta_max", "f_max",
             "band_low", "band_high", "lambda6", "lambda8", "phi_horizon_GeV", "mass_left_g", "lightcone_count", "value",
             "tightest_scan_bound", "log10_unseeded_expected_decays", "failure", "prescription", "mass_g", "width",
-            "log10_expected_decays_thermal", "beta", "f_pbh"}
+            "log10_expected_decays_thermal", "beta", "f_pbh",
+            # Thresholds: null where the window holds no crossing (the _note beside each says why).
+            "top_mass_threshold_GeV", "top_mass_outruns_threshold_GeV", "higgs_mass_threshold_GeV",
+            "higgs_mass_outruns_threshold_GeV", "alpha_s_threshold", "alpha_s_outruns_threshold"}
 TEXT = {".csv", ".json", ".yaml", ".tsv", ".txt", ".stdout", ""}
 
 

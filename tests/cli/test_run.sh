@@ -11,7 +11,8 @@ json_count=0
 json_ok() { json_count=$((json_count + 1)); cp "$work/out" "$work/json/$json_count.json"; echo "$1" >"$work/json/$json_count.name"; }
 
 # --- run ------------------------------------------------------------------------------------------
-sed -e 's/points: 31/points: 4/' -e 's|directory: ember-out/demo|directory: unused|' "$src/configs/demo.yaml" >"$work/demo-small.yaml"
+sed -e 's/points: 31/points: 4/' -e 's|directory: ember-out/demo|directory: unused|' \
+  -e 's/^scan:$/scan:\n  thresholds: {points: 3, tolerance: 0.2}/' "$src/configs/demo.yaml" >"$work/demo-small.yaml"
 run "run demo" 0 -- "$ember" run "$work/demo-small.yaml" -o "$work/run"
 stdout_has "run demo" "survivors: holes formed above 5.31e+14 g survive today"
 stdout_has "run demo" "EXCLUDED"
@@ -24,6 +25,35 @@ done
 grep -qiE '(^|[,:[ ])-?(nan|inf|infinity)([],} ]|$)' "$work/run/"*.csv "$work/run/summary.json" && fail "run demo: NaN or inf in the outputs"
 grep -q '^# scenario .*hash' "$work/run/constraint.csv" || fail "run demo: constraint.csv lacks the hash line"
 cp "$work/run/summary.json" "$work/run-summary.json"
+# The top-mass thresholds: printed, in summary.json, and consistent with the samples they came from
+# (the verdict is allowed just below the threshold and excluded just above it, sampled both sides).
+stdout_has "run demo" "thresholds in top_mass"
+stdout_has "run demo" "absolutely stable below the critical top mass"
+[[ -s "$work/run/sensitivity.csv" ]] || fail "run demo: no sensitivity.csv"
+/usr/bin/python3 - "$work/run" <<'PY' || fail "run demo: thresholds disagree with sensitivity.csv"
+import csv, json, sys
+d = sys.argv[1]
+s = json.load(open(d + "/summary.json"))
+rows = [r for r in csv.DictReader(l for l in open(d + "/sensitivity.csv") if not l.startswith("#"))]
+assert s["sensitivity"]["top_mass"]["samples"] == "sensitivity.csv"
+crit = s["sensitivity"]["top_mass"]["critical_top_mass_GeV"]
+tol = s["sensitivity"]["top_mass"]["root_tolerance_GeV"]
+cap = float([l for l in open(d + "/sensitivity.csv") if l.startswith("# max_decays:")][0].split(":")[1])
+seen = 0
+for name, p in s["prescriptions"].items():
+    t = p["top_mass_threshold_GeV"]
+    if t is None:
+        continue
+    seen += 1
+    assert t > crit, (name, t, crit)  # no seeded decay at all below the critical mass
+    n = [(float(r["value"]), float(r["N_lightcone"])) for r in rows
+         if r["prescription"] == name and r["N_lightcone"] != ""]
+    below = [v for v, N in n if v < t - tol and N > cap]
+    above = [v for v, N in n if v > t + tol and N <= cap]
+    assert not below and not above, (name, t, below, above)
+    assert any(v < t and N <= cap for v, N in n) and any(v > t and N > cap for v, N in n), name
+assert seen >= 1
+PY
 run "run resolved checks" 0 -- "$ember" check "$work/run/resolved.yaml"
 if /usr/bin/python3 -c 'import matplotlib' 2>/dev/null; then
   for f in constraint rates potential contributions; do
@@ -95,6 +125,7 @@ population:
 tunnelling:
   prescriptions: [probe_field]
 scan:
+  thresholds: {inputs: []}  # not what this test checks; they cost a B(M) table per evaluation
   masses: {from: 1 g, to: 1e12 g, points: 4}
   band:
     top_mass: {points: 3}

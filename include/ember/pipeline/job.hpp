@@ -111,6 +111,42 @@ struct FailedPoint {
   std::string reason;                 // the solver's message, with its numbers
 };
 
+// One evaluation of the scenario's own N at another value of one Standard Model input (the
+// others at the scenario's values), under one prescription.
+struct SensitivitySample {
+  double value = 0;                 // the input's value (GeV for the masses)
+  std::size_t prescription = 0;     // index into JobResults::outcomes
+  std::optional<double> lightcone;  // N in our past light cone; none where a solver failed
+  std::optional<double> max_ratio;  // the largest Gamma_D / Gamma_H over the seed masses
+  bool grid = true;                 // a window evaluation (false: one of a root's refinements)
+  std::string failure;              // the solver's message where one failed
+};
+
+// Where a quantity crosses its limit as the input moves.
+struct Threshold {
+  std::optional<double> value;  // none: no crossing in the window (note says which side holds)
+  std::string note;             // which side is excluded (or outruns), or why there is none
+  int crossings = 0;            // sign changes across the window's grid (the nearest one is refined)
+};
+
+struct PrescriptionThresholds {
+  Threshold exclusion;  // where N = max_decays
+  Threshold outruns;    // where the largest Gamma_D / Gamma_H over seed masses is 1
+};
+
+struct InputThresholds {
+  scenario::ThresholdInput input = scenario::ThresholdInput::top_mass;
+  double central = 0, sigma = 0;  // the scenario's value and the band's sigma (GeV for the masses)
+  double from = 0, to = 0;        // the window searched
+  double tolerance = 0;           // on each root (GeV for the masses)
+  // Top mass only: the absolute-stability critical top mass at the scenario's M_h and alpha_s
+  // (effective-potential criterion, the scenario's potential options); none where it failed.
+  std::optional<double> critical_top_mass;
+  std::string critical_note;                          // why it is missing
+  std::vector<PrescriptionThresholds> prescriptions;  // as JobResults::outcomes
+  std::vector<SensitivitySample> samples;             // by prescription, then by value
+};
+
 struct JobResults {
   std::string potential;                                        // description
   std::optional<higgs::StabilityReport> stability;              // Standard Model potentials
@@ -133,6 +169,7 @@ struct JobResults {
   std::optional<std::string> checkpoint_warning;  // checkpointing stopped during the run: why
   std::vector<FailedPoint> failures;              // in scan order; empty when every point succeeded
   std::vector<std::string> warnings;              // the scan's range against the scenario (stderr, summary.json)
+  std::vector<InputThresholds> thresholds;        // scan.thresholds (Standard Model potentials only)
   bool assembled = true;                          // false on MPI ranks that only computed
 };
 

@@ -67,6 +67,12 @@ struct TabulatedForm {
 };
 using PotentialForm = std::variant<StandardModelForm, PolynomialForm, TabulatedForm>;  // the higgs module builds each
 
+// The Standard Model inputs a scenario accepts (GeV for the masses); the threshold windows stay
+// within them too (pipeline/thresholds.hpp).
+struct InputRange {
+  double low, high;
+};
+inline constexpr InputRange top_mass_accepted{150, 200}, higgs_mass_accepted{100, 150}, alpha_s_accepted{0.1, 0.14};
 struct StandardModelInputs {
   higgs::Inputs inputs;  // M_t, M_h, M_W (GeV), alpha_s(M_Z), loop order
   PotentialForm potential;
@@ -115,10 +121,21 @@ struct Band {
   BandAxis top_mass, higgs_mass, alpha_s;
   std::vector<double> lambda6, lambda8;
 };
+// Where the scenario's verdict flips as one Standard Model input moves, the others held at the
+// scenario's values (pipeline/thresholds.hpp).
+enum class ThresholdInput { top_mass, higgs_mass, alpha_s };
+std::string name_of(ThresholdInput input);
+struct Thresholds {
+  std::vector<ThresholdInput> inputs;  // searched, in this order; empty: none
+  double span;                         // half-width of the search window, in sigma of the input (the band's)
+  int points;                          // evaluations across the window, before the roots are refined
+  double tolerance;                    // on each root, in sigma of the input
+};
 struct ScanChoices {
   MassGrid masses;
   std::vector<double> widths;
   Band band;
+  Thresholds thresholds;
 };
 
 struct ExclusionRule {
