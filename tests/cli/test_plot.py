@@ -147,6 +147,7 @@ def main():
                     check_figure(f"{scenario}/{name}", fig)
             check_constraint(scenario, figs["constraint"], folder)
             check_references(scenario, figs)
+        check_same_bytes(plot, folders["band"])
         check_script(folders["widths"])
     print(f"{checks - len(failures)} passed, {len(failures)} failed")
     return 1 if failures else 0
@@ -212,6 +213,20 @@ def check_references(scenario, figs):
     check(any("semiclassical floor" in r for r in refs(figs["rates"])), f"{scenario}/rates: the semiclassical floor")
     check(any(r.startswith("λ = 0") for r in refs(figs["potential"])), f"{scenario}/potential: the λ = 0 line")
     check(any("instability scale" in r for r in refs(figs["potential"])), f"{scenario}/potential: the instability scale")
+
+
+def check_same_bytes(plot, folder):
+    """The same results give the same files: each format saved twice, byte for byte."""
+    import io
+    fig = plot.constraint_figure(plot.Results(folder))
+    fig.tight_layout()
+    for fmt in ("png", "pdf", "svg"):
+        copies = []
+        for _ in range(2):
+            buffer = io.BytesIO()
+            fig.savefig(buffer, format=fmt, metadata=plot.METADATA.get(fmt))
+            copies.append(buffer.getvalue())
+        check(copies[0] == copies[1], f"constraint.{fmt}: the same bytes twice")
 
 
 def check_script(folder):
