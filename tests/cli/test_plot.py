@@ -36,6 +36,7 @@ def check(ok, what):
 
 
 def load_plot():
+    sys.dont_write_bytecode = True  # no __pycache__ left in the source tree
     loader = importlib.machinery.SourceFileLoader("plot", os.path.join(source, "scripts", "plot"))
     spec = importlib.util.spec_from_loader("plot", loader)
     module = importlib.util.module_from_spec(spec)
