@@ -51,13 +51,14 @@ SCENARIOS = {
     "band": """title: "plot test: monochromatic with a band (invented numbers)"
 population:
   spectrum: {shape: monochromatic, mass: 1e8 g}
-  abundance: {measure: beta, value: 1e-70}
+  abundance: {measure: beta, value: 1e-69}
 tunnelling: {prescriptions: [probe_field]}
 scan:
   masses: {from: 1 g, to: 1e14 g, points: 5}
   band:
     top_mass: {span: 2, points: 5}
     alpha_s: {span: 2, points: 3}
+  thresholds: {points: 5, tolerance: 0.2}
 output: {directory: unused}
 """,
     "widths": """title: "plot test: lognormal width scan (invented numbers)"
@@ -68,6 +69,7 @@ tunnelling: {prescriptions: [probe_field, no_seed]}
 scan:
   masses: {from: 1e3 g, to: 1e12 g, points: 5}
   widths: [0.7, 1.0]
+  thresholds: {inputs: []}
 output: {directory: unused}
 """,
 }
@@ -140,7 +142,7 @@ def main():
         for scenario, folder in folders.items():
             results = plot.Results(folder)
             figs = {name: function(results) for name, function in plot.FIGURES}
-            expected = {"constraint", "rates", "potential"} | ({"contributions"} if scenario == "widths" else set())
+            expected = {"constraint", "rates", "potential"} | ({"contributions"} if scenario == "widths" else {"sensitivity"})
             check({n for n, f in figs.items() if f is not None} == expected,
                   f"{scenario}: figures {sorted(n for n, f in figs.items() if f)}")
             for name, fig in figs.items():
@@ -148,6 +150,8 @@ def main():
                     check_figure(f"{scenario}/{name}", fig)
             check_constraint(scenario, figs["constraint"], folder)
             check_references(scenario, figs)
+            if figs.get("sensitivity") is not None:
+                check_sensitivity(scenario, figs["sensitivity"], folder)
         check_same_bytes(plot, folders["band"])
         check_script(folders["widths"])
     print(f"{checks - len(failures)} passed, {len(failures)} failed")
@@ -202,6 +206,52 @@ def check_constraint(scenario, fig, folder):
         check(any("width 1" in t for t in texts) and any("width 0.7" in t for t in texts), f"{where}: one curve per width")
     check(any("own panel" in t.get_text() for t in (bottom.get_legend().get_texts() if bottom.get_legend() else [])),
           f"{where}: the f_PBH panel says why it is a panel")
+
+
+def check_sensitivity(scenario, fig, folder):
+    """The sensitivity figure against sensitivity.csv and summary.json: the curves are the CSV's
+    N / max_decays, the measured 1 and 2 sigma ranges shaded at the scenario's M_t +- sigma, a
+    labelled line at each threshold summary.json gives and at the critical top mass."""
+    import json
+    where = f"{scenario}/sensitivity"
+    with open(os.path.join(folder, "summary.json")) as f:
+        summary = json.load(f)
+    with open(os.path.join(folder, "sensitivity.csv")) as f:
+        rows = list(csv.DictReader(line for line in f if not line.startswith("#")))
+    top, bottom = fig.axes
+    check(top.get_shared_x_axes().joined(top, bottom), f"{where}: both panels share the M_t axis")
+    low = top.get_ylim()[0]
+    for name in summary["prescriptions"]:
+        want = sorted((float(r["value"]), float(r["N_lightcone"])) for r in rows
+                      if r["prescription"] == name and r["N_lightcone"] and r["failed"] == "0"
+                      and float(r["N_lightcone"]) >= low)
+        drawn = [ln for ln in top.get_lines() if ln.get_label() == name]
+        got = sorted(zip(drawn[0].get_xdata(), drawn[0].get_ydata())) if drawn else []
+        check(len(got) == len(want) and all(math.isclose(a[0], b[0]) and math.isclose(a[1], b[1], rel_tol=1e-12)
+                                            for a, b in zip(got, want)),
+              f"{where}: {name}'s curve is sensitivity.csv's N ({len(got)} points drawn, {len(want)} in the window)")
+    refs = {getattr(ln, "reference_text", ""): ln.get_xdata()[0] for ln in top.get_lines()
+            if getattr(ln, "reference_text", None)}
+    seen = 0
+    for name, p in summary["prescriptions"].items():
+        t = p.get("top_mass_threshold_GeV")
+        if t is None:
+            continue
+        seen += 1
+        check(any(name in text and "verdict flips" in text and abs(x - t) < 1e-3 for text, x in refs.items()),
+              f"{where}: {name}'s threshold {t:.3f} GeV drawn and labelled")
+    check(seen >= 1, f"{where}: the scenario has a threshold in the window (else this test checks little)")
+    crit = summary["sensitivity"]["top_mass"]["critical_top_mass_GeV"]
+    check(any("critical" in text and abs(x - crit) < 1e-3 for text, x in refs.items()),
+          f"{where}: the critical top mass {crit:.3f} GeV drawn")
+    central = summary["sensitivity"]["top_mass"]["central_GeV"]
+    sigma = summary["sensitivity"]["top_mass"]["sigma_GeV"]
+    spans = sorted((round(min(p.get_xy()[:, 0]), 9), round(max(p.get_xy()[:, 0]), 9)) for p in top.patches)
+    check(spans == sorted([(round(central - 2 * sigma, 9), round(central + 2 * sigma, 9)),
+                           (round(central - sigma, 9), round(central + sigma, 9))]),
+          f"{where}: the 1 and 2 sigma ranges shaded around M_t = {central} ({spans})")
+    labels = [t.get_text() for t in top.get_legend().get_texts()] if top.get_legend() else []
+    check("measured ±1σ" in labels and "measured ±2σ" in labels, f"{where}: the sigma ranges in the legend")
 
 
 def check_references(scenario, figs):

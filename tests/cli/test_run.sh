@@ -56,7 +56,7 @@ assert seen >= 1
 PY
 run "run resolved checks" 0 -- "$ember" check "$work/run/resolved.yaml"
 if /usr/bin/python3 -c 'import matplotlib' 2>/dev/null; then
-  for f in constraint rates potential contributions; do
+  for f in constraint rates potential contributions sensitivity; do
     [[ -s "$work/run/$f.png" && -s "$work/run/$f.pdf" ]] || fail "run demo: plot $f missing"
   done
 fi
