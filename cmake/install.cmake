@@ -24,7 +24,7 @@ install(PROGRAMS scripts/plot DESTINATION ${CMAKE_INSTALL_LIBEXECDIR}/ember)
 
 install(EXPORT EmberTargets NAMESPACE Ember:: DESTINATION ${EMBER_CMAKE_DIR})
 configure_package_config_file(cmake/EmberConfig.cmake.in ${CMAKE_CURRENT_BINARY_DIR}/EmberConfig.cmake
-  INSTALL_DESTINATION ${EMBER_CMAKE_DIR})
+  INSTALL_DESTINATION ${EMBER_CMAKE_DIR} PATH_VARS CMAKE_INSTALL_DATADIR)
 write_basic_package_version_file(${CMAKE_CURRENT_BINARY_DIR}/EmberConfigVersion.cmake COMPATIBILITY SameMinorVersion)
 install(FILES ${CMAKE_CURRENT_BINARY_DIR}/EmberConfig.cmake ${CMAKE_CURRENT_BINARY_DIR}/EmberConfigVersion.cmake
   DESTINATION ${EMBER_CMAKE_DIR})
