@@ -6,6 +6,7 @@
 
 #include "command.hpp"
 #include "ember/core/atomic_file.hpp"
+#include "ember/core/cache.hpp"
 #include "ember/core/errors.hpp"
 #include "ember/core/text.hpp"
 #include "ember/greybody/emission.hpp"
@@ -82,10 +83,24 @@ int power(const GreybodyOptions& o) {
   return exit_ok;
 }
 
+// Without --output a rebuilt table goes into the cache folder: never over the table that ships
+// (an installed copy's data is not the user's to rewrite).
+std::filesystem::path rebuilt_table_path(const GreybodyOptions& o) {
+  if (!o.output.empty()) return o.output;
+  const auto cache = default_cache_directory();
+  if (!cache)
+    throw InputError(
+        "greybody --rebuild: no --output, and no cache folder (EMBER_CACHE_DIR, XDG_CACHE_HOME and HOME are all "
+        "unset); expected --output FILE");
+  std::error_code ec;
+  std::filesystem::create_directories(*cache, ec);  // a failure shows in check_writable_file, named
+  return *cache / "greybody.tsv";
+}
+
 int rebuild(const GreybodyOptions& o) {
   BuildOptions options;
   options.quiet = o.quiet;
-  const std::filesystem::path out = o.output.empty() ? default_table_path() : std::filesystem::path(o.output);
+  const std::filesystem::path out = rebuilt_table_path(o);
   check_writable_file(out);  // before a second of solving, not after
   BuildSummary summary;
   const Table table = build_table(options, &summary);
@@ -120,7 +135,9 @@ Command add_greybody(CLI::App& parent) {
   auto* power_flag = app->add_flag("--power", o->power, "power and number emitted per degree of freedom, per spin");
   auto* rebuild_flag = app->add_flag("--rebuild", o->rebuild, "solve every row again and rewrite the table");
   app->add_option("--table", o->table, "read this table instead of data/greybody.tsv");
-  app->add_option("--output", o->output, "--rebuild: write here instead of data/greybody.tsv");
+  app->add_option("--output", o->output,
+                  "--rebuild: write the table here (default: greybody.tsv in the cache folder, $EMBER_CACHE_DIR, else "
+                  "$XDG_CACHE_HOME/ember, else ~/.cache/ember; the shipped table is never rewritten)");
   app->add_flag("--quiet", o->quiet, "no progress bar");
   app->add_flag("--json", o->json, "print one JSON object on stdout");
   power_flag->excludes(rebuild_flag);

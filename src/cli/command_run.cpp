@@ -9,6 +9,7 @@
 #include "ember/core/parallel.hpp"
 #include "ember/pipeline/run.hpp"
 #include "ember/report/outputs.hpp"
+#include "plots.hpp"
 
 namespace ember::cli {
 
@@ -46,7 +47,12 @@ void print_notes(const pipeline::ScenarioRun& run, bool quiet) {
 report::Written write_results(const scenario::LoadedScenario& loaded, const pipeline::ScenarioRun& run,
                               const std::filesystem::path& out, bool plots) {
   try {
-    const report::Written written = report::write_outputs(loaded, run.results, out, plots, run.foreign);
+    // The figures are drawn into the set before it is committed, so they belong to it.
+    const report::Figures figures = [plots](const std::filesystem::path& staging,
+                                            const std::vector<std::string>& formats) {
+      return plots ? draw_plots(staging, formats) : std::string("plots skipped (--no-plots)");
+    };
+    const report::Written written = report::write_outputs(loaded, run.results, out, figures, run.foreign);
     pipeline::discard_checkpoint(run);
     return written;
   } catch (const OutputError& e) {

@@ -8,7 +8,6 @@
 
 #include "band.hpp"
 #include "ember/core/atomic_file.hpp"
-#include "ember/core/data_files.hpp"
 #include "ember/core/errors.hpp"
 #include "ember/core/finite.hpp"
 #include "ember/core/hash.hpp"
@@ -41,11 +40,6 @@ std::string csv_header(const scenario::LoadedScenario& l, const std::string& wha
                                 scenario::scenario_hash(l), version);
   for (const auto& n : notes) out += "# " + n + "\n";
   return out;
-}
-
-// Debian's python3 (where python3-matplotlib installs) before whatever python3 is first on PATH.
-std::string python() {
-  return std::filesystem::exists("/usr/bin/python3") ? "/usr/bin/python3" : "python3";
 }
 
 bool wants(const scenario::Scenario& s, const char* file) {
@@ -441,26 +435,8 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
   return t;
 }
 
-namespace {
-
-// Runs scripts/plot over the CSV files in `folder`; says what happened.
-std::string draw_plots(const scenario::Scenario& s, const std::filesystem::path& folder, bool plots) {
-  const std::filesystem::path script = data_directory() / ".." / "scripts" / "plot";
-  if (!plots) return "plots skipped (--no-plots)";
-  if (std::system(fmt::format("{} -c 'import matplotlib' >/dev/null 2>&1", python()).c_str()) != 0)
-    return "plots skipped: python3 with matplotlib is not installed (Debian: python3-matplotlib)";
-  std::string formats;
-  for (const auto& f : s.output.plot_formats) formats += (formats.empty() ? "" : ",") + f;
-  const std::string command = fmt::format("{} '{}' '{}' --formats {} >/dev/null 2>&1", python(),
-                                          script.lexically_normal().string(), folder.string(), formats);
-  return std::system(command.c_str()) == 0 ? "plots written by scripts/plot"
-                                           : "plots failed: scripts/plot returned an error";
-}
-
-}  // namespace
-
 Written write_outputs(const scenario::LoadedScenario& l, const pipeline::JobResults& r,
-                      const std::filesystem::path& dir, bool plots, ForeignFolder foreign) {
+                      const std::filesystem::path& dir, const Figures& figures, ForeignFolder foreign) {
   Written w;
   const scenario::Scenario& s = l.scenario;
   // Every text is built and checked (no NaN or inf anywhere) before the first is written, so a
@@ -512,7 +488,8 @@ Written write_outputs(const scenario::LoadedScenario& l, const pipeline::JobResu
     set.add(name, text);
     w.files.push_back(name);
   }
-  if (wants(s, "plots")) w.plots_note = draw_plots(s, set.staging(), plots);
+  if (wants(s, "plots"))
+    w.plots_note = figures ? figures(set.staging(), s.output.plot_formats) : "plot data written; no figures drawn";
   (void)set.commit();
   return w;
 }

@@ -1,11 +1,13 @@
 // Writing the results of `ember run`: summary.json, constraint.csv, decay.csv, the plot data
-// (rates.csv, potential.csv), resolved.yaml and the plots, each written atomically. CSV files open
+// (rates.csv, potential.csv) and resolved.yaml, each written atomically. The figures are the
+// caller's (the command line runs scripts/plot): the library starts no processes. CSV files open
 // with commented lines giving the units and the scenario hash. No NaN or inf is ever written:
 // missing values are empty cells in CSV and null in JSON.
 // Units: masses in g, times in s, energies in GeV in every file.
 #pragma once
 
 #include <filesystem>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -23,8 +25,15 @@ struct Written {
   std::string plots_note;  // why plots were or were not made
 };
 
+// Draws figures from the plot data in `staging` (the set's staging folder, holding every data
+// file) in the given image formats, before the set is committed: what it writes there becomes
+// part of the set. Returns the note for the summary (what was drawn, or why not).
+using Figures =
+    std::function<std::string(const std::filesystem::path& staging, const std::vector<std::string>& formats)>;
+
+// With no `figures`, the plot data is written and no figure drawn.
 Written write_outputs(const scenario::LoadedScenario& loaded, const pipeline::JobResults& results,
-                      const std::filesystem::path& directory, bool plots,
+                      const std::filesystem::path& directory, const Figures& figures = {},
                       ForeignFolder foreign = ForeignFolder::refuse);
 
 nlohmann::ordered_json summary_json(const scenario::LoadedScenario& loaded, const pipeline::JobResults& results);
