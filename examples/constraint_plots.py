@@ -4,7 +4,7 @@
   constraint.png   the largest allowed beta against formation mass, per prescription, for a
                    monochromatic population (invented numbers, as configs/monochromatic_scan.yaml)
   sensitivity.png  how the Higgs inputs move it: lambda(mu) for several top masses, and the
-                   tightest bound on beta against the top mass
+                   scenario's N against the top mass with its thresholds and the measured range
 
 Usage: PYTHONPATH=PREFIX/lib/python3/dist-packages python3 examples/constraint_plots.py [FOLDER] [--points N]
 """
@@ -52,19 +52,31 @@ def sensitivity_figure(points, folder):
     mu = np.logspace(3, 18.5, 200)
     fig, (left, right) = plt.subplots(1, 2, figsize=(10, 4))
     fig.subplots_adjust(wspace=0.35)
-    tightest = []
     for mt in top_masses:
         sm = ember.StandardModel(top_mass=mt)
         left.semilogx(mu, sm.lambda_running(mu), label=f"$M_t$ = {mt} GeV ({sm.verdict})")
-        beta = ember.run(scenario(points, mt))["curves"]["entropy_drop"]["beta_max"]
-        tightest.append(beta.min() if beta.count() > 0 else np.nan)
     left.axhline(0, color="grey", lw=0.5)
     left.set_xlabel(r"$\mu$ [GeV]")
     left.set_ylabel(r"$\lambda(\mu)$ ($\overline{\rm MS}$)")
     left.legend(fontsize=7)
-    right.semilogy(top_masses, tightest, "o-")
+    # The scenario's own N against M_t: the run's threshold search (scan.thresholds, on by default).
+    t = ember.run(scenario(points))["thresholds"]["top_mass"]
+    c, s = t["central"], t["sigma"]
+    right.axvspan(c - 2 * s, c + 2 * s, color="0.85", label=r"measured $\pm 2\sigma$")
+    right.axvspan(c - s, c + s, color="0.7", label=r"measured $\pm 1\sigma$")
+    for name, p in t["prescriptions"].items():
+        n = p["N"]
+        keep = ~np.ma.getmaskarray(n) & (n.filled(0.0) > 0)
+        if keep.any():
+            line, = right.semilogy(p["value"][keep], n[keep], "o-", ms=3, label=name)
+            if p["threshold"] is not None:
+                right.axvline(p["threshold"], ls=":", color=line.get_color())
+    if t["critical_top_mass"] is not None:
+        right.axvline(t["critical_top_mass"], ls="-.", color="grey", label="critical top mass")
+    right.axhline(1, ls="--", color="grey", lw=0.8)
     right.set_xlabel("$M_t$ [GeV]")
-    right.set_ylabel(r"tightest $\beta_{\max}$ over the scan (entropy_drop)")
+    right.set_ylabel("expected decays N in our past light cone")
+    right.legend(fontsize=7)
     fig.savefig(os.path.join(folder, "sensitivity.png"), bbox_inches="tight")
     plt.close(fig)
 

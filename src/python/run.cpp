@@ -130,6 +130,50 @@ py::dict curve_dict(const pipeline::PrescriptionOutcome& o) {
   return d;
 }
 
+py::object maybe(const std::optional<double>& v) {
+  return v ? py::object(py::float_(*v)) : py::object(py::none());
+}
+
+// The threshold searches per input (top_mass, ...): the window, the critical top mass, per
+// prescription the two thresholds with their notes, and every evaluation as arrays (the rows of
+// sensitivity.csv).
+py::dict thresholds_dict(const pipeline::JobResults& r) {
+  py::dict out;
+  for (const auto& in : r.thresholds) {
+    py::dict d, per;
+    d["central"] = in.central;
+    d["sigma"] = in.sigma;
+    d["window"] = py::make_tuple(in.from, in.to);
+    d["tolerance"] = in.tolerance;
+    d["critical_top_mass"] = maybe(in.critical_top_mass);
+    for (std::size_t k = 0; k < in.prescriptions.size(); ++k) {
+      const auto& t = in.prescriptions[k];
+      std::vector<double> value, n, ratio;
+      std::vector<bool> has_n, has_ratio;
+      for (const auto& s : in.samples) {
+        if (s.prescription != k) continue;
+        value.push_back(s.value);
+        n.push_back(s.lightcone.value_or(0.0));
+        has_n.push_back(s.lightcone.has_value());
+        ratio.push_back(s.max_ratio.value_or(0.0));
+        has_ratio.push_back(s.max_ratio.has_value());
+      }
+      py::dict p;
+      p["threshold"] = maybe(t.exclusion.value);
+      p["threshold_note"] = t.exclusion.note;
+      p["outruns_threshold"] = maybe(t.outruns.value);
+      p["outruns_threshold_note"] = t.outruns.note;
+      p["value"] = array(value);
+      p["N"] = masked(n, has_n);
+      p["max_decay_to_evaporation"] = masked(ratio, has_ratio);
+      per[py::str(tunnelling::name_of(r.outcomes.at(k).prescription))] = p;
+    }
+    d["prescriptions"] = per;
+    out[py::str(scenario::name_of(in.input))] = d;
+  }
+  return out;
+}
+
 py::dict results_dict(const scenario::LoadedScenario& loaded, const Finished& done) {
   const pipeline::JobResults& r = done.results;
   py::dict out;
@@ -147,6 +191,7 @@ py::dict results_dict(const scenario::LoadedScenario& loaded, const Finished& do
   out["excluded"] = excluded;
   out["verdicts"] = verdicts;
   out["curves"] = curves;
+  out["thresholds"] = thresholds_dict(r);
   py::list failures;
   for (const auto& f : r.failures) failures.append(f.reason);
   out["failures"] = failures;
@@ -200,7 +245,10 @@ void add_run(py::module_& m) {
         "Run a scenario: a scenario file's path, or a dict with the same keys. Returns a dict: N (expected decays "
         "in our past light cone per prescription), excluded and verdicts per prescription, curves (per "
         "prescription: mass_g, width, beta_max, f_max, band_low, band_high as numpy arrays, masked where there is "
-        "no constraint), failures, and summary (summary.json as a dict). With output=FOLDER the files of `ember "
+        "no constraint), thresholds (per input of scan.thresholds: central, sigma, window, tolerance, "
+        "critical_top_mass, and per prescription threshold, outruns_threshold, their notes and the evaluations "
+        "value, N, max_decay_to_evaporation as arrays), failures, and summary (summary.json as a dict). With "
+        "output=FOLDER the files of `ember "
         "run` are written there too (plot data, no figures). threads: 0 for every core. Ctrl-C stops the run.");
   m.def(
       "load_scenario",

@@ -68,6 +68,38 @@ class SameAsCli(unittest.TestCase):
                 self.assertTrue(np.isclose(curve["beta_max"][i], float(row[beta]), rtol=1e-9))
         self.assertFalse(np.any(np.isnan(curve["beta_max"].filled(0.0))))
 
+    def test_thresholds_are_the_cli_thresholds(self):
+        # The top-mass thresholds (scan.thresholds, on by default) as the command line reports them
+        # in summary.json and sensitivity.csv.
+        r = ember.run(SCENARIO)
+        t = r["thresholds"]["top_mass"]
+        sens = cli_summary["sensitivity"]["top_mass"]
+        self.assertEqual(t["critical_top_mass"], sens["critical_top_mass_GeV"])
+        self.assertEqual(t["window"], tuple(sens["window_GeV"]))
+        self.assertEqual(t["tolerance"], sens["root_tolerance_GeV"])
+        with open(os.path.join(work.name, "cli", "sensitivity.csv")) as f:
+            lines = [line.strip() for line in f if not line.startswith("#")]
+        header, rows = lines[0].split(","), [line.split(",") for line in lines[1:]]
+        for name, p in cli_summary["prescriptions"].items():
+            self.assertEqual(t["prescriptions"][name]["threshold"], p["top_mass_threshold_GeV"], name)
+            self.assertEqual(t["prescriptions"][name]["outruns_threshold"], p["top_mass_outruns_threshold_GeV"], name)
+            mine = [row for row in rows if row[header.index("prescription")] == name]
+            values = t["prescriptions"][name]["value"]
+            n = t["prescriptions"][name]["N"]
+            self.assertEqual(len(values), len(mine), name)
+            for i, row in enumerate(mine):
+                self.assertTrue(np.isclose(values[i], float(row[header.index("value")]), rtol=1e-9))
+                cell = row[header.index("N_lightcone")]
+                if cell == "":
+                    self.assertTrue(np.ma.is_masked(n[i]))
+                else:
+                    self.assertTrue(np.isclose(n[i], float(cell), rtol=1e-8, atol=0), (name, i))
+        # The scenario is excluded at its own top mass under entropy_drop (cli_summary) and the
+        # vacuum is stable below the critical top mass: a flip exists between them.
+        self.assertTrue(cli_summary["prescriptions"]["entropy_drop"]["excluded"])
+        flip = t["prescriptions"]["entropy_drop"]["threshold"]
+        self.assertTrue(t["critical_top_mass"] < flip < t["central"])
+
     def test_files_are_the_cli_files(self):
         out = os.path.join(work.name, "module")
         r = ember.run(scenario_file, output=out, threads=1)
