@@ -160,8 +160,9 @@ Threshold find_root(const Search& search, const InputThresholds& in, std::size_t
     t.note = throughout_words(q, known.front().second > 0);
     return t;
   }
-  const auto [a, fa] = known[*nearest];
-  const auto [b, fb] = known[*nearest + 1];
+  // Plain copies, not structured bindings: clang before 16 cannot capture those in a lambda.
+  const double a = known[*nearest].first, fa = known[*nearest].second;
+  const double b = known[*nearest + 1].first, fb = known[*nearest + 1].second;
   const auto f = [&](double x) {
     // Brent's first calls are the bracket's ends, evaluated already.
     if (x == a) return fa;
