@@ -23,7 +23,9 @@ void SpheroidalOptions::validate() const {
   };
   require(std::isfinite(change) && change > 1e-15 && change < 1e-3, "change", "must lie in (1e-15, 1e-3)", change);
   require(initial_terms >= 1, "initial_terms", "must be at least 1", initial_terms);
-  require(step_terms >= 1, "step_terms", "must be at least 1", step_terms);
+  // For s = 0 (or c = 0) the matrix splits into even and odd l - l_lowest, which do not couple: a
+  // step of one term would grow only one of the two and could leave the eigenvalue unchanged.
+  require(step_terms >= 2 && step_terms % 2 == 0, "step_terms", "must be even and at least 2", step_terms);
   require(max_terms >= initial_terms + step_terms, "max_terms", "must be at least initial_terms + step_terms",
           max_terms);
 }

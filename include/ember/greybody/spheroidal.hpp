@@ -38,7 +38,8 @@ struct SpheroidalOptions {
   double change = tolerance::spheroidal_change;
   // First basis: the mode's own index, plus |c|, plus this many terms.
   int initial_terms = tolerance::spheroidal_initial_terms;
-  // Terms added at each growth of the basis.
+  // Terms added at each growth of the basis; even, so that both parity blocks of an s = 0 problem
+  // grow.
   int step_terms = tolerance::spheroidal_step_terms;
   // Largest basis tried before giving up (NumericalError).
   int max_terms = tolerance::spheroidal_max_terms;
