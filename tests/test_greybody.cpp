@@ -531,6 +531,7 @@ TEST_CASE("the radial equation's constant is A + c^2 - 2 m c") {
 TEST_CASE("bad spheroidal arguments are rejected by name") {
   using ember::InputError;
   CHECK_THROWS_WITH_AS(spheroidal(2, 1, 0, 0.1), doctest::Contains("l = 1: must be at least |s| = 2"), InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(0, -1, 0, 0.1), doctest::Contains("l = -1: must be at least |s| = 0"), InputError);
   CHECK_THROWS_WITH_AS(spheroidal(0, 2, 3, 0.1), doctest::Contains("m = 3: |m| must not exceed l = 2"), InputError);
   CHECK_THROWS_WITH_AS(spheroidal(0.5, 1, 0.5, 0.1), doctest::Contains("l = 1: l - s must be a whole number"),
                        InputError);

@@ -60,8 +60,8 @@ SpheroidalLabels spheroidal_labels(double s, double l, double m, double c) {
   if (std::abs(ts) > 4) fail("s", s, "spin weight must be one of 0, +-1/2, +-1, +-3/2, +-2");
   if ((tm - ts) % 2 != 0) fail("m", m, fmt::format("m - s must be a whole number (s = {})", s));
   if ((tl - ts) % 2 != 0) fail("l", l, fmt::format("l - s must be a whole number (s = {})", s));
-  if (std::abs(tm) > tl) fail("m", m, fmt::format("|m| must not exceed l = {}", l));
   if (std::abs(ts) > tl) fail("l", l, fmt::format("must be at least |s| = {}", std::abs(s)));
+  if (std::abs(tm) > tl) fail("m", m, fmt::format("|m| must not exceed l = {}", l));
   if (!std::isfinite(c)) fail("c", c, "must be finite");
   const int t_lowest = std::max(std::abs(ts), std::abs(tm));
   return {s, l, m, c, 0.5 * t_lowest, (tl - t_lowest) / 2};
