@@ -2,19 +2,25 @@
 #include <doctest/doctest.h>
 #include <unistd.h>
 
+#include <algorithm>
+#include <array>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
 
 #include "ember/core/errors.hpp"
+#include "ember/core/gsl_tools.hpp"
 #include "ember/core/input_file.hpp"
+#include "ember/core/odeint.hpp"
 #include "ember/greybody/emission.hpp"
 #include "ember/greybody/solver.hpp"
+#include "ember/greybody/spheroidal.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/greybody/table_cache.hpp"
 #include "support.hpp"
 
 using namespace ember::greybody;
+using ember::Estimate;
 using ember::testing::close;
 using ember::testing::source_dir;
 
@@ -275,4 +281,273 @@ TEST_CASE("cached greybody tables: a hit is bit for bit, a changed option misses
   // No directory: built, nothing stored.
   CHECK_FALSE(cached_table(o, std::nullopt).hit);
   std::filesystem::remove_all(dir);
+}
+
+// ---- Spin-weighted spheroidal separation constants (spheroidal.hpp), Teukolsky's A convention.
+
+namespace {
+
+SpheroidalEigenvalue spheroidal(double s, double l, double m, double c, const SpheroidalOptions& o = {}) {
+  return spheroidal_eigenvalue(s, l, m, c, o);
+}
+
+// An independent solution of Teukolsky's angular equation (ApJ 185 (1973) 635, eq. 4.10; from
+// memory) by shooting: integrate S'' = -cot S' - V S from each pole, starting on the regular
+// Frobenius branch S ~ theta^|m + s| (1 + b theta^2), and match by the Wronskian at theta = 1.2,
+// off the equator, where a solution of definite parity may have its node. The far pole is the
+// same problem in pi - theta with (m, c) -> (-m, -c).
+using AngularState = std::array<double, 2>;  // S, dS/dtheta
+
+struct AngularEquation {
+  double s, m, c, a;
+  void operator()(const AngularState& y, AngularState& dy, double theta) const {
+    const double x = std::cos(theta), sn = std::sin(theta);
+    const double v = c * c * x * x - 2 * c * s * x - (m + s * x) * (m + s * x) / (sn * sn) + s + a;
+    dy[0] = y[1];
+    dy[1] = -x / sn * y[1] - v * y[0];
+  }
+};
+
+struct PoleSolution {
+  AngularState at_match;
+  int nodes;
+};
+
+PoleSolution shoot_from_pole(const AngularEquation& eq, double theta_end, double ode_tolerance) {
+  namespace odeint = boost::numeric::odeint;
+  const double theta0 = 1e-3;  // the start's neglected term is ~ theta0^4 = 1e-12 relative
+  const double alpha = std::abs(eq.m + eq.s), mu = eq.m + eq.s;
+  // Series S = theta^alpha (1 + b theta^2): b (4 alpha + 4) = alpha/3 - v0, with v0 the regular part
+  // of V at the pole (derived by substituting the series; (m + s cos)^2/sin^2 = mu^2/theta^2 + mu^2/3
+  // - mu s + O(theta^2)).
+  const double v0 = eq.c * eq.c - 2 * eq.c * eq.s - mu * mu / 3 + mu * eq.s + eq.s + eq.a;
+  const double b = (alpha / 3 - v0) / (4 * alpha + 4);
+  AngularState y = {1 + b * theta0 * theta0, (alpha + (alpha + 2) * b * theta0 * theta0) / theta0};
+  int nodes = 0;
+  double last = y[0];
+  auto stepper = odeint::make_controlled<odeint::runge_kutta_fehlberg78<AngularState>>(ode_tolerance, ode_tolerance);
+  odeint::integrate_adaptive(stepper, eq, y, theta0, theta_end, 1e-4, [&](const AngularState& state, double) {
+    if (state[0] * last < 0) ++nodes;
+    if (state[0] != 0) last = state[0];
+  });
+  return {y, nodes};
+}
+
+struct ShotEigenvalue {
+  double a;
+  int nodes;
+  bool bracketed;
+};
+
+// The root of the Wronskian in [guess - 0.05, guess + 0.05]: a bracket narrow against
+// the eigenvalue spacing, so a matrix eigenvalue off by more than 0.05 fails the check.
+ShotEigenvalue shoot_eigenvalue(double s, double m, double c, double guess, double ode_tolerance) {
+  const double theta_match = 1.2;
+  const auto mismatch = [&](double a) {
+    const PoleSolution north = shoot_from_pole({s, m, c, a}, theta_match, ode_tolerance);
+    const PoleSolution south = shoot_from_pole({s, -m, -c, a}, pi - theta_match, ode_tolerance);
+    // d/dtheta = -d/d(pi - theta) on the southern solution.
+    return north.at_match[0] * -south.at_match[1] - north.at_match[1] * south.at_match[0];
+  };
+  const double lo = guess - 0.05, hi = guess + 0.05;
+  if (mismatch(lo) * mismatch(hi) >= 0) return {guess, -1, false};
+  const ember::BrentResult root = ember::brent_root(mismatch, lo, hi, 1e-13);
+  const int nodes = shoot_from_pole({s, m, c, root.x}, theta_match, ode_tolerance).nodes +
+                    shoot_from_pole({s, -m, -c, root.x}, pi - theta_match, ode_tolerance).nodes;
+  return {root.x, nodes, root.converged};
+}
+
+// Berti, Cardoso & Casals, PRD 73 (2006) 024013, the small-c series of sA_lm to O(c^2) (from
+// memory): A = l(l+1) - s(s+1) - 2 c s^2 m / (l(l+1)) + c^2 [H(l+1) - H(l) - 1],
+// H(l) = 2 (l^2 - m^2)(l^2 - s^2)^2 / ((2l - 1) l^3 (2l + 1)), and H = 0 at the lowest l, where
+// its numerator vanishes. (For s = 0 this is Abramowitz & Stegun 21.7.6 with c -> i c; from memory.)
+double small_c_series(double s, double l, double m, double c) {
+  const double lowest = std::max(std::abs(s), std::abs(m));
+  const auto h = [&](double k) {
+    if (k <= lowest) return 0.0;
+    return 2 * (k * k - m * m) * (k * k - s * s) * (k * k - s * s) / ((2 * k - 1) * k * k * k * (2 * k + 1));
+  };
+  const double first = l > 0 ? -2 * c * s * s * m / (l * (l + 1)) : 0.0;
+  return l * (l + 1) - s * (s + 1) + first + c * c * (h(l + 1) - h(l) - 1);
+}
+
+struct SpheroidalCase {
+  double s, l, m;
+};
+
+}  // namespace
+
+TEST_CASE("spheroidal eigenvalues at c = 0 are the spin-weighted spherical ones") {
+  // sA_lm(0) = l(l+1) - s(s+1) (Teukolsky, ApJ 185 (1973) 635, below eq. 4.10; Goldberg et al.,
+  // J. Math. Phys. 8 (1967) 2155; both from memory).
+  for (const SpheroidalCase& k : {SpheroidalCase{0, 0, 0},
+                                  {0, 3, -2},
+                                  {0.5, 0.5, -0.5},
+                                  {-0.5, 2.5, 1.5},
+                                  {1, 1, 0},
+                                  {-1, 4, 3},
+                                  {2, 2, 2},
+                                  {-2, 2, -1},
+                                  {-2, 5, 0}}) {
+    const SpheroidalEigenvalue e = spheroidal(k.s, k.l, k.m, 0.0);
+    CAPTURE(k.s);
+    CAPTURE(k.l);
+    CAPTURE(k.m);
+    CHECK(std::abs(e.separation.value - (k.l * (k.l + 1) - k.s * (k.s + 1))) <= e.separation.error + 1e-13);
+    CHECK(e.separation.error < 1e-12);
+  }
+}
+
+TEST_CASE("spheroidal eigenvalues follow the small-c series to O(c^3)") {
+  // The series' neglected term is O(c^3) (O(c^4) for s = 0, where A is even in c). At c = 1e-2 the
+  // first- and second-order terms are up to 1e-2 and 1e-4: the residual must be below 1e-6 (an
+  // error of 1e-2 in the c^2 coefficient would show), and doubling c must multiply it by 8 to 16,
+  // not by 4 (a wrong c^2 term) or 2 (a wrong c term).
+  for (const SpheroidalCase& k : {SpheroidalCase{0, 0, 0},
+                                  {0, 2, 1},
+                                  {0.5, 1.5, 0.5},
+                                  {-0.5, 1.5, -1.5},
+                                  {1, 1, 1},
+                                  {-1, 2, -1},
+                                  {2, 2, 2},
+                                  {-2, 2, 1},
+                                  {-2, 3, -2}}) {
+    CAPTURE(k.s);
+    CAPTURE(k.l);
+    CAPTURE(k.m);
+    for (const double c : {1e-2, -1e-2}) {
+      CAPTURE(c);
+      const double d1 = spheroidal(k.s, k.l, k.m, c).separation.value - small_c_series(k.s, k.l, k.m, c);
+      const double d2 = spheroidal(k.s, k.l, k.m, 2 * c).separation.value - small_c_series(k.s, k.l, k.m, 2 * c);
+      MESSAGE("residual at c: " << d1 << ", at 2c: " << d2);
+      CHECK(std::abs(d1) < 1e-6);
+      CHECK(d2 / d1 > 7);
+      CHECK(d2 / d1 < 17);
+    }
+  }
+}
+
+TEST_CASE("spheroidal eigenvalues agree with shooting on the angular equation") {
+  // Independent method: the shooter above (Boost.Odeint RKF78 at 1e-12, Brent on the Wronskian at
+  // theta = 1.2). Its own error, from the start's theta0^4 term and the ODE tolerance, is estimated
+  // by repeating at a 100 times looser tolerance; the agreement must be within the matrix's error
+  // plus that, with a floor of 1e-10 for the start. The node count checks the label:
+  // l - max(|s|, |m|) zeros in (0, pi) (Sturm-Liouville oscillation theorem, common practice).
+  for (const SpheroidalCase& k : {SpheroidalCase{0, 0, 0},
+                                  {0, 2, 1},
+                                  {0, 3, -2},
+                                  {-2, 2, 1},
+                                  {-2, 3, -2},
+                                  {-2, 2, 2},
+                                  {1, 2, -1},
+                                  {-0.5, 1.5, 0.5}}) {
+    for (const double c : {0.5, 2.0, -1.5}) {
+      CAPTURE(k.s);
+      CAPTURE(k.l);
+      CAPTURE(k.m);
+      CAPTURE(c);
+      const SpheroidalEigenvalue e = spheroidal(k.s, k.l, k.m, c);
+      const ShotEigenvalue fine = shoot_eigenvalue(k.s, k.m, c, e.separation.value, 1e-12);
+      const ShotEigenvalue loose = shoot_eigenvalue(k.s, k.m, c, e.separation.value, 1e-10);
+      REQUIRE(fine.bracketed);
+      const double shooting_error = std::abs(fine.a - loose.a) + 1e-10;
+      const double difference = std::abs(e.separation.value - fine.a);
+      MESSAGE("A = " << e.separation.value << " +- " << e.separation.error << ", shooting " << fine.a
+                     << " (|difference| " << difference << ", shooting error " << shooting_error << ")");
+      CHECK(difference <= e.separation.error + shooting_error);
+      CHECK(fine.nodes == static_cast<int>(k.l - std::max(std::abs(k.s), std::abs(k.m))));
+    }
+  }
+}
+
+TEST_CASE("spheroidal eigenvalues obey the symmetries of the angular equation") {
+  // Derived from Teukolsky's eq. 4.10: theta -> pi - theta maps the equation for (s, m, c) onto
+  // that for (s, -m, -c) with the same A, and onto that for (-s, m, c) with A + 2s (the "+ s" term
+  // is the only one odd under s -> -s once cos -> -cos). The second is also Berti, Cardoso &
+  // Casals, PRD 73 (2006) 024013 (from memory): -sA_lm = sA_lm + 2s.
+  for (const SpheroidalCase& k : {SpheroidalCase{2, 3, 1}, {1, 2, -2}, {0.5, 2.5, -0.5}, {2, 2, 0}}) {
+    for (const double c : {0.7, -2.5}) {
+      CAPTURE(k.s);
+      CAPTURE(k.l);
+      CAPTURE(k.m);
+      CAPTURE(c);
+      const Estimate a = spheroidal(k.s, k.l, k.m, c).separation;
+      const Estimate mirrored = spheroidal(k.s, k.l, -k.m, -c).separation;
+      const Estimate flipped = spheroidal(-k.s, k.l, k.m, c).separation;
+      const Estimate both = spheroidal(-k.s, k.l, -k.m, -c).separation;
+      CHECK(std::abs(a.value - mirrored.value) <= a.error + mirrored.error);
+      CHECK(std::abs(a.value + 2 * k.s - flipped.value) <= a.error + flipped.error);
+      CHECK(std::abs(a.value + 2 * k.s - both.value) <= a.error + both.error);
+      // And the symmetry is not trivial: changing the sign of c alone moves A at first order in c
+      // when s m != 0 (the -2 c s^2 m / (l(l+1)) term).
+      if (k.s * k.m != 0) CHECK(std::abs(a.value - spheroidal(k.s, k.l, k.m, -c).separation.value) > 1e-3);
+    }
+  }
+}
+
+TEST_CASE("the spheroidal error bounds the difference to a much larger basis") {
+  // Small first bases and steps, so that at the looser tolerances the truncation, not rounding,
+  // decides the error; the reference is 100 terms larger and carries its own rounding floor.
+  SpheroidalOptions big;
+  big.initial_terms = 100;
+  for (const double change : {5e-4, 1e-5, 1e-7, 1e-12}) {
+    SpheroidalOptions o;
+    o.change = change;
+    o.initial_terms = 1;
+    o.step_terms = 2;
+    for (const SpheroidalCase& k : {SpheroidalCase{0, 0, 0}, {-2, 2, 2}, {-2, 4, -1}, {0.5, 3.5, 0.5}}) {
+      for (const double c : {0.3, 1.0, -3.0, 8.0, -20.0}) {
+        CAPTURE(change);
+        CAPTURE(k.s);
+        CAPTURE(k.l);
+        CAPTURE(k.m);
+        CAPTURE(c);
+        const SpheroidalEigenvalue e = spheroidal(k.s, k.l, k.m, c, o);
+        const SpheroidalEigenvalue r = spheroidal(k.s, k.l, k.m, c, big);
+        const double reference = r.separation.value;
+        MESSAGE("error " << e.separation.error << " vs |difference| " << std::abs(e.separation.value - reference)
+                         << " with " << e.summary.terms << " terms (reference rounding " << r.summary.rounding << ")");
+        CHECK(std::abs(e.separation.value - reference) <= e.separation.error + r.summary.rounding);
+        // Each basis is a leading block of the next, so by Cauchy interlacing the truncated
+        // eigenvalue can only fall as terms are added (common practice): it lies above the limit.
+        CHECK(e.separation.value >= reference - e.summary.rounding - r.summary.rounding);
+        CHECK(e.separation.error <= 10 * change * std::max(1.0, std::abs(e.separation.value)) + e.summary.rounding);
+      }
+    }
+  }
+}
+
+TEST_CASE("the radial equation's constant is A + c^2 - 2 m c") {
+  // At c = 0: lambda = (l - s)(l + s + 1), the Schwarzschild value of the Teukolsky radial
+  // equation (Teukolsky & Press, ApJ 193 (1974) 443; from memory).
+  CHECK(radial_separation_constant(spheroidal(-2, 3, 1, 0.0).separation, 1, 0.0).value ==
+        doctest::Approx((3 + 2) * (3 - 2 + 1)));
+  const Estimate a = spheroidal(-1, 2, 1, 0.8).separation;
+  const Estimate lambda = radial_separation_constant(a, 1, 0.8);
+  CHECK(lambda.value == doctest::Approx(a.value + 0.64 - 1.6).epsilon(1e-14));
+  CHECK(lambda.error == a.error);
+}
+
+TEST_CASE("bad spheroidal arguments are rejected by name") {
+  using ember::InputError;
+  CHECK_THROWS_WITH_AS(spheroidal(2, 1, 0, 0.1), doctest::Contains("l = 1: must be at least |s| = 2"), InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(0, -1, 0, 0.1), doctest::Contains("l = -1: must be at least |s| = 0"), InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(0, 2, 3, 0.1), doctest::Contains("m = 3: |m| must not exceed l = 2"), InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(0.5, 1, 0.5, 0.1), doctest::Contains("l = 1: l - s must be a whole number"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(1, 2, 0.5, 0.1), doctest::Contains("m = 0.5: m - s must be a whole number"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(0, 2.3, 0, 0.1), doctest::Contains("l = 2.3: must be a whole or half-whole"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(3, 3, 0, 0.1), doctest::Contains("s = 3: spin weight"), InputError);
+  CHECK_THROWS_WITH_AS(spheroidal(0, 1, 0, std::nan("")), doctest::Contains("c = nan: must be finite"), InputError);
+  SpheroidalOptions o;
+  o.change = 0;
+  CHECK_THROWS_WITH_AS(spheroidal(0, 1, 0, 0.1, o), doctest::Contains("change = 0"), InputError);
+  o = SpheroidalOptions{};
+  o.step_terms = 3;
+  CHECK_THROWS_WITH_AS(spheroidal(0, 1, 0, 0.1, o), doctest::Contains("step_terms = 3: must be even"), InputError);
+  o = SpheroidalOptions{};
+  o.max_terms = 20;
+  CHECK_THROWS_WITH_AS(spheroidal(0, 1, 0, 50.0, o), doctest::Contains("max_terms = 20"), ember::NumericalError);
 }

@@ -33,4 +33,18 @@ inline constexpr double interpolation_relative = 1e-4;
 // |R|^2 ~ 1e-27 already at x = 100 (measured), which the tables use instead.
 inline constexpr double solver_max_x = 1e3;
 
+// Spin-weighted spheroidal separation constants (spheroidal.hpp): the truncated spectral basis
+// starts at the mode's index + |c| + `spheroidal_initial_terms` and grows by
+// `spheroidal_step_terms` until the eigenvalue changes by less than
+// `spheroidal_change` * max(1, |A|) (or by less than its rounding floor); a basis that would pass
+// `spheroidal_max_terms` is a failure. The coefficients fall off faster than geometrically once
+// the basis is past |c| (common practice), so the last change bounds what is left.
+inline constexpr double spheroidal_change = 1e-12;
+inline constexpr int spheroidal_initial_terms = 8;
+inline constexpr int spheroidal_step_terms = 4;
+inline constexpr int spheroidal_max_terms = 400;
+// Rounding floor of a symmetric eigensolve: this many machine epsilons times the matrix's
+// infinity norm (backward stability of the QR iteration, common practice).
+inline constexpr double spheroidal_rounding_epsilons = 8.0;
+
 }  // namespace ember::greybody::tolerance
