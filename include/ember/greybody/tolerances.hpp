@@ -47,4 +47,17 @@ inline constexpr int spheroidal_max_terms = 400;
 // infinity norm (backward stability of the QR iteration, common practice).
 inline constexpr double spheroidal_rounding_epsilons = 8.0;
 
+// Kerr radial solver (kerr_solver.hpp): the horizon series is summed until four terms in a row
+// fall below this fraction of the sum; it starts at z = r - r_+ = `kerr_start_fraction` (r_+ - r_-),
+// halved (at most `kerr_start_halvings` times) until the series converges in `kerr_series_terms`.
+// Starting well inside the series' radius (r_+ - r_-) keeps the growth of the outgoing solution's
+// share, (d / z)^s, small; a start closer in costs digits for s > 0.
+inline constexpr double kerr_horizon_series = 1e-16;
+inline constexpr double kerr_start_fraction = 0.25;
+inline constexpr int kerr_start_halvings = 12;
+inline constexpr int kerr_series_terms = 400;
+// Closer than this to omega = m Omega_H (in |K_H|) the horizon series of an integer spin has a
+// logarithm; the solver refuses such x (Gamma vanishes there).
+inline constexpr double kerr_threshold_gap = 1e-9;
+
 }  // namespace ember::greybody::tolerance
