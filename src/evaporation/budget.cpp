@@ -34,3 +34,24 @@ std::vector<double> lifetime_shares(const MassLoss& ml, double mass, double cuto
 }
 
 }  // namespace ember::evaporation
+
+namespace ember::evaporation {
+
+std::vector<double> kerr_lifetime_shares(const KerrMassLoss& ml, const KerrTrajectory& tr) {
+  const auto& points = tr.points();
+  const std::size_t n_species = ml.particles().species.size();
+  // The tail below the cutoff radiates M_cut with the shares there.
+  std::vector<double> out = ml.power_shares(points.back().mass, points.back().hole_spin);
+  for (double& x : out) x *= points.back().mass;
+  std::vector<double> previous = ml.power_shares(points.front().mass, points.front().hole_spin);
+  for (std::size_t i = 1; i < points.size(); ++i) {
+    const std::vector<double> here = ml.power_shares(points[i].mass, points[i].hole_spin);
+    const double dm = points[i - 1].mass - points[i].mass;
+    for (std::size_t s = 0; s < n_species; ++s) out[s] += 0.5 * (previous[s] + here[s]) * dm;
+    previous = here;
+  }
+  for (double& x : out) x /= points.front().mass;
+  return out;
+}
+
+}  // namespace ember::evaporation

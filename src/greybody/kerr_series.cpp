@@ -132,8 +132,8 @@ FarWave far_wave(const TeukolskyRadial& eq, int sigma, double r, int max_terms) 
   const double rho = sigma < 0 ? -1.0 : -1.0 - 2.0 * s;
   const cd beta4 = coefficient(first, 4);
   std::vector<cd> dn{1.0};  // c_n r^-n
-  cd g = 1.0, dg = rho;     // sums of d_n and (rho - n) d_n
-  double smallest = 1.0;
+  std::vector<double> size{1.0};
+  int rises = 0;
   for (int n_new = 1; n_new < max_terms; ++n_new) {
     cd sum = 0.0;
     for (int k = 0; k <= 4; ++k) {
@@ -148,16 +148,33 @@ FarWave far_wave(const TeukolskyRadial& eq, int sigma, double r, int max_terms) 
       if (ng >= 0 && ng < n_new)
         sum += coefficient(zeroth, k) * dn[static_cast<std::size_t>(ng)] * std::pow(r, ng - n_new);
     }
-    const cd term = sum / (beta4 * static_cast<double>(n_new));
-    const double size = std::abs(term);
-    const bool cancelled = size < 1e-10 * std::abs(dn.back());
-    if (!cancelled && size > smallest) break;  // past the smallest term: the series diverges from here
-    dn.push_back(term);
-    g += term;
-    dg += (rho - n_new) * term;
-    if (cancelled) continue;
-    smallest = size;
-    if (size < 1e-17 && std::abs(dn[dn.size() - 2]) < 1e-17) break;  // converged to round-off
+    dn.push_back(sum / (beta4 * static_cast<double>(n_new)));
+    size.push_back(std::abs(dn.back()));
+    const double before = size[size.size() - 2];
+    if (size.back() < 1e-17 && before < 1e-17) break;  // converged to round-off
+    // Two growths in a row: the series has begun to diverge. One growth is not enough: a single
+    // coefficient can be accidentally small (c_1 of the s = 2 outgoing wave is ~ lambda, which
+    // vanishes at a* = 0), and the terms after it are of normal size.
+    rises = size.back() > before ? rises + 1 : 0;
+    if (rises >= 2) break;
+  }
+  // Truncate after the term N that minimises the next two terms' size, which is the error kept
+  // (the next two, not the next one, so that an accidentally small term does not pass for the end
+  // of the series).
+  std::size_t keep = dn.size() - 1;
+  double smallest = size.back();
+  if (!(size.back() < 1e-17))
+    for (std::size_t n = 0; n + 2 < dn.size(); ++n) {
+      const double e = std::max(size[n + 1], size[n + 2]);
+      if (n == 0 || e < smallest) {
+        smallest = e;
+        keep = n;
+      }
+    }
+  cd g = 0.0, dg = 0.0;  // sums of d_n and (rho - n) d_n
+  for (std::size_t n = 0; n <= keep; ++n) {
+    g += dn[n];
+    dg += (rho - static_cast<double>(n)) * dn[n];
   }
   const cd phase = std::exp(cd(0.0, sigma * w * kerr_tortoise(eq.hole, r)));
   const double power = std::pow(r, rho);

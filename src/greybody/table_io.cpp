@@ -13,6 +13,7 @@
 #include "ember/core/input_file.hpp"
 #include "ember/core/text.hpp"
 #include "ember/greybody/table.hpp"
+#include "tsv_lines.hpp"
 
 namespace ember::greybody {
 
@@ -33,15 +34,7 @@ constexpr double max_l = 30;
 constexpr const char* column_line = "spin\tl\tx\ttransmission\treflection\terror";
 
 [[noreturn]] void bad(const std::string& file, int line, const std::string& what, const std::string& expected) {
-  throw InputError(fmt::format("{}:{}: {}; expected {}", file, line, printable(what), expected));
-}
-
-std::vector<std::string> split_tabs(const std::string& line) {
-  std::vector<std::string> out;
-  std::string field;
-  std::istringstream in(line);
-  while (std::getline(in, field, '\t')) out.push_back(trim(field));
-  return out;
+  bad_table_line(file, line, what, expected);
 }
 
 }  // namespace
@@ -68,11 +61,7 @@ Table parse_table(std::string_view text, const std::string& file) {
     ++number;
     if (line.empty()) continue;
     if (line[0] == '#') {
-      const auto colon = line.find(':');
-      const std::string key = trim(line.substr(1, colon == std::string::npos ? 0 : colon - 1));
-      if (colon != std::string::npos && key.find(' ') == std::string::npos && !key.empty()) {
-        if (const auto v = parse_real(trim(line.substr(colon + 1)))) keys[key] = *v;
-      }
+      read_header_line(line, keys);
       continue;
     }
     if (!columns_seen) {

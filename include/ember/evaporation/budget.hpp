@@ -5,6 +5,7 @@
 
 #include <vector>
 
+#include "ember/evaporation/kerr_trajectory.hpp"
 #include "ember/evaporation/mass_loss.hpp"
 
 namespace ember::evaporation {
@@ -16,5 +17,10 @@ std::vector<double> power_shares(const MassLoss& mass_loss, double mass);
 // density, down to `cutoff`; below it the shares are held at their cutoff values (the analytic
 // tail).
 std::vector<double> lifetime_shares(const MassLoss& mass_loss, double mass, double cutoff);
+
+// A rotating hole: the shares of the mass-energy radiated along its trajectory, from its initial
+// mass down to nothing, (1/M_0) int share_s(M, a*(M)) dM by the trapezoid rule on the
+// trajectory's points (20 per e-fold of mass), with the shares held at their cutoff values below.
+std::vector<double> kerr_lifetime_shares(const KerrMassLoss& mass_loss, const KerrTrajectory& trajectory);
 
 }  // namespace ember::evaporation

@@ -60,4 +60,16 @@ inline constexpr int kerr_series_terms = 400;
 // logarithm; the solver refuses such x (Gamma vanishes there).
 inline constexpr double kerr_threshold_gap = 1e-9;
 
+// Kerr emission integrals (kerr_emission.hpp): GSL QAGS to this relative accuracy, with this many
+// subintervals at most, up to x = max(m Omega_H, 0) + `kerr_thermal_cut` T_H, where the thermal
+// factor is e^-72 ~ 5e-32 of its value at the threshold (the Schwarzschild integrals stop at
+// 8 pi x = 69, alike).
+inline constexpr double kerr_quadrature_relative = 1e-9;
+inline constexpr int kerr_quadrature_intervals = 200;
+inline constexpr double kerr_thermal_cut = 72.0;
+// A Kerr table row is accepted when its solve's error is below this relative share of Gamma (the
+// solver itself calls 1e-6 converged; at x ~ 1e-3 on a spinning hole the far match lies at
+// r ~ 1e6 M and a few rows come out at 1e-6 to 1e-5), ten times below the interpolation target.
+inline constexpr double kerr_table_solve_relative = 1e-5;
+
 }  // namespace ember::greybody::tolerance
