@@ -2,6 +2,9 @@
 
 #include <fmt/format.h>
 
+#include <cmath>
+#include <optional>
+
 #include "ember/core/errors.hpp"
 #include "ember/core/record.hpp"
 
@@ -21,6 +24,9 @@ void write(RecordWriter& w, const population::Response& r) {
     w.real(t->hazard).real(t->probability).real(t->decay_time).real(t->lightcone_radius);
   w.real(d.probability_semiclassical).real(d.plasma_at_decay).real(d.plasma_at_crossover).maybe_real(d.cooled_time);
   w.real(r.lightcone_per_beta_counted).real(r.lightcone_per_beta_postponed).real(r.lightcone_per_beta_semiclassical);
+  w.maybe_real(std::isfinite(d.gate_mass) ? std::optional<double>(d.gate_mass) : std::nullopt);
+  w.maybe_real(d.spin_at_crossover).flag(d.spinning_crossover);
+  w.real(r.lightcone_per_beta_spinning).real(r.spinning_crossover_share);
   w.end_line();
 }
 
@@ -64,6 +70,11 @@ population::Response read_response(RecordReader& in) {
   r.lightcone_per_beta_counted = in.real();
   r.lightcone_per_beta_postponed = in.real();
   r.lightcone_per_beta_semiclassical = in.real();
+  d.gate_mass = in.maybe_real().value_or(HUGE_VAL);
+  d.spin_at_crossover = in.maybe_real();
+  d.spinning_crossover = in.flag();
+  r.lightcone_per_beta_spinning = in.real();
+  r.spinning_crossover_share = in.real();
   return r;
 }
 

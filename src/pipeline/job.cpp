@@ -12,7 +12,11 @@
 #include "assemble.hpp"
 #include "ember/core/embedded.hpp"
 #include "ember/core/errors.hpp"
+#include "ember/core/input_file.hpp"
+#include "ember/core/text.hpp"
+#include "ember/evaporation/kerr_mass_loss.hpp"
 #include "ember/evaporation/mass_loss_cache.hpp"
+#include "ember/greybody/kerr_table.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/greybody/table_cache.hpp"
 #include "ember/population/thermal_baseline.hpp"
@@ -80,6 +84,46 @@ evaporation::MassLoss mass_loss_for(const Scenario& s, const JobOptions& o, JobR
   return std::move(cached.mass_loss);
 }
 
+// The spins the holes are born with, as quadrature nodes (population/hole_spin.hpp).
+population::SpinDistribution hole_spins_of(const Scenario& s) {
+  const double top = greybody::KerrBuildOptions{}.hole_spins.back();
+  if (const auto* f = std::get_if<scenario::FixedSpin>(&s.population.hole_spin))
+    return population::fixed_spin(f->value);
+  if (const auto* u = std::get_if<scenario::UniformSpin>(&s.population.hole_spin))
+    return population::uniform_spin(u->low, u->high);
+  if (const auto* g = std::get_if<scenario::GaussianSpin>(&s.population.hole_spin))
+    return population::gaussian_spin(g->mean, g->width, top);
+  const auto& t = std::get<scenario::TabulatedSpin>(s.population.hole_spin);
+  // A spin table has tens of rows; this is room for a hundred thousand.
+  constexpr std::uintmax_t max_bytes = 4u << 20;
+  return population::tabulated_spin(read_input_file(t.file, "a spin table (a*, density)", max_bytes), t.file.string(),
+                                    top);
+}
+
+// The Kerr rates, for a population with spin; none without.
+std::optional<evaporation::KerrMassLoss> kerr_rates_for(const Scenario& s, const population::SpinDistribution& spins,
+                                                        JobResults& out) {
+  if (!spins.spinning()) return std::nullopt;
+  if (s.evaporation.mass_loss.argument == evaporation::GreybodyArgument::momentum)
+    throw InputError(
+        "evaporation.greybody_argument: momentum is not available for spinning holes (population.hole_spin); "
+        "expected energy (the Kerr rates take the greybody factors at the energy)");
+  const greybody::KerrTable table = s.evaporation.kerr_table ? greybody::load_kerr_table(*s.evaporation.kerr_table)
+                                                             : greybody::load_default_kerr_table();
+  evaporation::KerrMassLoss kerr(table, evaporation::load_default_particles(), s.evaporation.mass_loss);
+  for (const auto& n : spins.nodes)
+    if (n.spin > kerr.max_hole_spin())
+      throw InputError(
+          fmt::format("population.hole_spin: a* = {} above the Kerr table's top node {}; expected a* <= {}",
+                      format_real(n.spin), format_real(kerr.max_hole_spin()), format_real(kerr.max_hole_spin())));
+  out.kerr =
+      fmt::format("{} (stated greybody interpolation error {:.1e}); Kerr rates within {:.1e} between its spin nodes",
+                  s.evaporation.kerr_table ? s.evaporation.kerr_table->string()
+                                           : greybody::default_kerr_table_path().filename().string(),
+                  table.header().interpolation_error, kerr.relative_error());
+  return kerr;
+}
+
 // The unseeded thermal baseline at the central Higgs point (Standard Model potentials only),
 // from the earliest formation time of any mass the job evaluates.
 std::optional<population::ThermalBaseline> thermal_baseline_of(const detail::JobPlan& plan) {
@@ -117,7 +161,15 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     out.outcomes.push_back(outcome);
   }
 
+  const population::SpinDistribution spins = hole_spins_of(s);
+  const std::optional<evaporation::KerrMassLoss> kerr = kerr_rates_for(s, spins, out);
+  out.hole_spin = spins.description;
+  out.spinning = spins.spinning();
+  out.spin_limit = s.tunnelling.spin_limit;
+
   detail::JobPlan plan = detail::make_plan(s, o, background, mass_loss, out.spectrum);
+  plan.context.hole_spin = spins;
+  plan.context.spinning = {kerr ? &*kerr : nullptr, &mass_loss, s.evaporation.trajectory, s.tunnelling.spin_limit};
   out.plot_masses = plan.plot_masses;
   out.spectrum_mass = plan.base->characteristic_mass();
   out.warnings = plan.warnings;

@@ -10,20 +10,79 @@
 
 namespace ember::population {
 
+namespace {
+
+void add_counts(Response& r, const Decay& d, double w, const ResponseContext& c) {
+  const double lc = lightcone_decays_per_beta(r.formation, d);
+  r.lightcone_per_beta += w * lc;
+  r.lightcone_per_beta_counted +=
+      w * lightcone_decays_per_beta(r.formation, d.counted.probability, d.counted.lightcone_radius);
+  r.lightcone_per_beta_postponed +=
+      w * lightcone_decays_per_beta(r.formation, d.postponed.probability, d.postponed.lightcone_radius);
+  r.lightcone_per_beta_semiclassical +=
+      w * lightcone_decays_per_beta(r.formation, d.probability_semiclassical, d.lightcone_radius);
+  r.hubble_per_beta += w * hubble_decays_per_beta(r.formation, d, *c.background);
+  if (d.spinning_crossover) {
+    r.lightcone_per_beta_spinning += w * lc;
+    r.spinning_crossover_share += w;
+  }
+}
+
+// The weighted means over the spin nodes, on the median node's decay (counts.hpp says which).
+Decay mean_decay(const std::vector<Decay>& ds, const SpinDistribution& spins, const cosmology::Background& b,
+                 bool postpone) {
+  Decay d = ds[spins.median_node()];
+  const auto mean = [&](auto field) {
+    double m = 0;
+    for (std::size_t j = 0; j < ds.size(); ++j) m += spins.nodes[j].weight * field(ds[j]);
+    return m;
+  };
+  const auto treatment = [&](Treatment Decay::*t) {
+    Treatment out;
+    out.hazard = mean([&](const Decay& x) { return (x.*t).hazard; });
+    out.probability = mean([&](const Decay& x) { return (x.*t).probability; });
+    if (out.probability > 0) {
+      out.decay_time = mean([&](const Decay& x) { return (x.*t).probability * (x.*t).decay_time; }) / out.probability;
+      out.lightcone_radius = b.lightcone_radius(out.decay_time);
+    }
+    return out;
+  };
+  d.counted = treatment(&Decay::counted);
+  d.postponed = treatment(&Decay::postponed);
+  const Treatment& chosen = postpone ? d.postponed : d.counted;
+  d.hazard = chosen.hazard;
+  d.probability = chosen.probability;
+  d.decay_time = chosen.decay_time;
+  d.lightcone_radius = chosen.lightcone_radius;
+  d.hazard_in_time = mean([](const Decay& x) { return x.hazard_in_time; });
+  d.probability_semiclassical = mean([](const Decay& x) { return x.probability_semiclassical; });
+  d.spinning_crossover = false;
+  for (const auto& x : ds) d.spinning_crossover = d.spinning_crossover || x.spinning_crossover;
+  return d;
+}
+
+}  // namespace
+
 Response response_at(double mass, const tunnelling::ActionTable& table, const ResponseContext& c) {
   Response r;
   r.mass = mass;
   r.formation = formation_of(mass, c.collapse_fraction, *c.background);
-  r.decay = decay_along(r.formation, *c.mass_loss, c.trajectory, table, *c.background, c.decay, c.standard_model);
-  r.lightcone_per_beta = lightcone_decays_per_beta(r.formation, r.decay);
-  const Decay& d = r.decay;
-  r.lightcone_per_beta_counted =
-      lightcone_decays_per_beta(r.formation, d.counted.probability, d.counted.lightcone_radius);
-  r.lightcone_per_beta_postponed =
-      lightcone_decays_per_beta(r.formation, d.postponed.probability, d.postponed.lightcone_radius);
-  r.lightcone_per_beta_semiclassical =
-      lightcone_decays_per_beta(r.formation, d.probability_semiclassical, d.lightcone_radius);
-  r.hubble_per_beta = hubble_decays_per_beta(r.formation, r.decay, *c.background);
+  if (!c.hole_spin.spinning()) {
+    r.decay = decay_along(r.formation, *c.mass_loss, c.trajectory, table, *c.background, c.decay, c.standard_model);
+    add_counts(r, r.decay, 1.0, c);
+  } else {
+    if (!c.spinning.kerr) throw InputError("population: a spinning population without the Kerr rates");
+    std::vector<Decay> ds;
+    for (const auto& node : c.hole_spin.nodes) {
+      ds.push_back(node.spin > 0 ? decay_along_spinning(r.formation, node.spin, c.spinning, table, *c.background,
+                                                        c.decay, c.standard_model)
+                                 : decay_along(r.formation, *c.mass_loss, c.trajectory, table, *c.background, c.decay,
+                                               c.standard_model));
+      add_counts(r, ds.back(), node.weight, c);
+    }
+    r.decay =
+        ds.size() == 1 ? ds.front() : mean_decay(ds, c.hole_spin, *c.background, c.decay.hot_era == HotEra::postpone);
+  }
   r.f_per_beta = f_pbh_per_beta(r.formation, *c.background);
   r.count_per_beta = lightcone_count_per_beta(r.formation, *c.background);
   // Module boundary (no NaN leaves a module): a response leaves the population module finite.
@@ -124,6 +183,7 @@ Counts counts_unchecked(const MassFunction& s, AbundanceMeasure measure, double 
     c.lightcone_counted = c.beta * r.lightcone_per_beta_counted;
     c.lightcone_postponed = c.beta * r.lightcone_per_beta_postponed;
     c.lightcone_semiclassical = c.beta * r.lightcone_per_beta_semiclassical;
+    c.lightcone_spinning = c.beta * r.lightcone_per_beta_spinning;
     return c;
   }
   const Response& mid = nearest(rs, s.characteristic_mass());
@@ -144,6 +204,8 @@ Counts counts_unchecked(const MassFunction& s, AbundanceMeasure measure, double 
       c.f_pbh * integrate(s, rs, [](const Response& r) { return r.lightcone_per_beta_postponed / r.f_per_beta; });
   c.lightcone_semiclassical =
       c.f_pbh * integrate(s, rs, [](const Response& r) { return r.lightcone_per_beta_semiclassical / r.f_per_beta; });
+  c.lightcone_spinning =
+      c.f_pbh * integrate(s, rs, [](const Response& r) { return r.lightcone_per_beta_spinning / r.f_per_beta; });
   return c;
 }
 

@@ -11,6 +11,7 @@
 #include "ember/core/errors.hpp"
 #include "ember/core/gsl_status.hpp"
 #include "ember/core/gsl_tools.hpp"
+#include "ember/evaporation/spinning_clock.hpp"
 #include "ember/units/constants.hpp"
 
 namespace ember::population {
@@ -36,6 +37,7 @@ double qag(const std::function<double(double)>& f, double lo, double hi, double 
 struct Sample {
   double u = 0, ratio = 0, time = 0;
   bool cold = false, semiclassical = true;
+  bool open = true;  // the seeded rate counts here (a spinning hole's spin has fallen to the limit)
 };
 
 // The pieces of [lo, hi] in ln M where keep(u) holds, from `grid` (increasing u), each change
@@ -84,13 +86,21 @@ struct TimeWeights {
   }
 };
 
-}  // namespace
+// The spin gate of a spinning hole: the seeded rate counts only at masses up to `gate`, where a*
+// has fallen to the spin limit (hole_spin.hpp); infinite for a non-rotating hole.
+struct Gate {
+  double mass = HUGE_VAL;
+  bool open(double m) const { return m <= mass * (1 + 1e-12); }  // exp(ln M) may round up
+  bool everywhere() const { return mass == HUGE_VAL; }
+};
 
-Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
-                  const evaporation::TrajectoryOptions& topt, const tunnelling::ActionTable& table,
-                  const cosmology::Background& b, const DecayOptions& o, const higgs::StandardModelPotential* sm) {
+// The decay along one history. Clock: Trajectory or SpinningClock (lifetime, age_at, mass_at_age,
+// time_left, mass_at_time_left); gamma_h(M, rates): Gamma_H at M.
+template <class Clock, class EvaporationRate>
+Decay decay_with(const Formation& formation, const Clock& tr, EvaporationRate gamma_h, Gate gate,
+                 const evaporation::MassLoss& ml, const tunnelling::ActionTable& table, const cosmology::Background& b,
+                 const DecayOptions& o, const higgs::StandardModelPotential* sm) {
   Decay d;
-  const evaporation::Trajectory tr(ml, formation.mass, topt);
   const double available = b.age() - formation.time;  // time from formation to today
   // The hazard runs down to the semiclassical floor: the trajectory's cutoff_mass only decides
   // where its integration hands over to the analytic tail, never where the hazard stops.
@@ -103,29 +113,34 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
     d.formed_below_floor = true;
     return d;
   }
+  const auto ratio_of = [&](double m, const tunnelling::Rates& r) {
+    const double h = gamma_h(m, r);
+    return h > 0 ? r.decay_rate / h : 0.0;
+  };
   const auto sample = [&](double u) {
     const double m = std::exp(u);
     const tunnelling::ActionPoint a = table.at(m);
     const tunnelling::Rates r = tunnelling::rates_at(a, ml, o.prefactor);
-    Sample s{u, r.evaporation_rate > 0 ? r.decay_rate / r.evaporation_rate : 0.0, formation.time + tr.age_at(m)};
+    Sample s{u, ratio_of(m, r), formation.time + tr.age_at(m)};
     s.cold = check_plasma(b, sm, s.time, m, a, units::newton_G).cold_enough();
     s.semiclassical = !a.flags.below_minimum_action;
+    s.open = gate.open(m);
     return s;
   };
   // Gamma_D / Gamma_H as a function of ln M (the hazard per unit ln M).
   const auto ratio = [&](double u) {
-    const tunnelling::Rates r = tunnelling::rates_at(table.at(std::exp(u)), ml, o.prefactor);
-    return r.evaporation_rate > 0 ? r.decay_rate / r.evaporation_rate : 0.0;
+    const double m = std::exp(u);
+    return ratio_of(m, tunnelling::rates_at(table.at(m), ml, o.prefactor));
   };
   const int n = o.grid_points;
   std::vector<Sample> grid;
   for (int i = 0; i <= n; ++i) grid.push_back(sample(u_lo + (u_hi - u_lo) * i / n));
 
   const bool postpone = o.hot_era == HotEra::postpone;
-  d.counted.hazard = qag(ratio, u_lo, u_hi, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
+  const double whole = qag(ratio, u_lo, u_hi, o.relative_tolerance, "decay hazard quadrature (GSL qag, ln M)");
   // Each distinct set of pieces is integrated once: the hot era and the minimum action usually
   // restrict the hazard to the same pieces (or to none), and the whole range is the counted hazard.
-  std::vector<std::pair<std::vector<std::pair<double, double>>, double>> integrated{{{{u_lo, u_hi}}, d.counted.hazard}};
+  std::vector<std::pair<std::vector<std::pair<double, double>>, double>> integrated{{{{u_lo, u_hi}}, whole}};
   const auto hazard_where = [&](const std::function<bool(const Sample&)>& kept) {
     const auto parts = pieces(
         grid, [&](double u) { return kept(sample(u)); }, kept);
@@ -137,8 +152,10 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
     integrated.emplace_back(parts, h);
     return h;
   };
-  d.postponed.hazard = hazard_where([](const Sample& s) { return s.cold; });
-  const double semiclassical = hazard_where([&](const Sample& s) { return s.semiclassical && (s.cold || !postpone); });
+  d.counted.hazard = gate.everywhere() ? whole : hazard_where([](const Sample& s) { return s.open; });
+  d.postponed.hazard = hazard_where([](const Sample& s) { return s.cold && s.open; });
+  const double semiclassical =
+      hazard_where([&](const Sample& s) { return s.open && s.semiclassical && (s.cold || !postpone); });
   d.counted.probability = -std::expm1(-d.counted.hazard);
   d.postponed.probability = -std::expm1(-d.postponed.hazard);
   d.probability_semiclassical = -std::expm1(-semiclassical);
@@ -148,8 +165,10 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
     const double tau = std::exp(s), m = tr.mass_at_time_left(tau);
     return tunnelling::rates_at(table.at(m), ml, o.prefactor).decay_rate * tau;
   };
-  d.hazard_in_time = qag(in_time, std::log(tr.time_left(d.end_mass)), std::log(tr.time_left(formation.mass)),
-                         o.relative_tolerance, "decay hazard quadrature (GSL qag, ln time left)");
+  const double top = std::min(formation.mass, gate.mass);
+  if (top > d.end_mass)
+    d.hazard_in_time = qag(in_time, std::log(tr.time_left(d.end_mass)), std::log(tr.time_left(top)),
+                           o.relative_tolerance, "decay hazard quadrature (GSL qag, ln time left)");
 
   // Crossover, the first cold moment and the decay times, on the grid from the formation mass down.
   const auto crossing = [&](std::size_t i) {  // Gamma_D reaches Gamma_H between grid[i] and grid[i + 1]
@@ -169,6 +188,12 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
   if (grid.back().cold) d.cooled_time = grid.back().time;
   TimeWeights all, cold;
   const double du = (u_hi - u_lo) / n;
+  Sample at_gate;
+  const bool gate_inside = !gate.everywhere() && gate.mass > d.end_mass && gate.mass < formation.mass;
+  if (gate_inside) {
+    at_gate = sample(std::log(gate.mass));
+    at_gate.open = true;
+  }
   for (std::size_t i = grid.size() - 1; i-- > 0;) {
     const Sample &early = grid[i + 1], &late = grid[i];
     if (!d.crossover_mass && late.ratio >= 1 && early.ratio < 1) crossing(i);
@@ -180,8 +205,13 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
       }
       d.cooled_time = sample(cool).time;
     }
-    all.step(early.ratio, late.ratio, du, early.time, late.time);
-    cold.step(early.cold ? early.ratio : 0.0, late.cold ? late.ratio : 0.0, du, early.time, late.time);
+    // The step through the spin gate starts at the gate, so no decay is timed before it.
+    const bool through_gate = gate_inside && !early.open && late.open;
+    const Sample& from = through_gate ? at_gate : early;
+    const double step = through_gate ? at_gate.u - late.u : du;
+    const double late_ratio = late.open ? late.ratio : 0.0;
+    all.step(from.open ? from.ratio : 0.0, late_ratio, step, from.time, late.time);
+    cold.step(from.cold && from.open ? from.ratio : 0.0, late.cold ? late_ratio : 0.0, step, from.time, late.time);
   }
   all.finish(d.counted, b);
   cold.finish(d.postponed, b);
@@ -195,6 +225,32 @@ Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
   if (d.crossover_mass) d.plasma_at_crossover = plasma_temperature(b, formation.time + tr.age_at(*d.crossover_mass));
   // Below the floor the semiclassical rate is not trusted: say when it would have mattered.
   if (d.evaporated && d.probability < 0.5) d.decays_below_floor = ratio(std::log(floor)) > 1;
+  return d;
+}
+
+}  // namespace
+
+Decay decay_along(const Formation& formation, const evaporation::MassLoss& ml,
+                  const evaporation::TrajectoryOptions& topt, const tunnelling::ActionTable& table,
+                  const cosmology::Background& b, const DecayOptions& o, const higgs::StandardModelPotential* sm) {
+  const evaporation::Trajectory tr(ml, formation.mass, topt);
+  const auto gamma_h = [](double, const tunnelling::Rates& r) { return r.evaporation_rate; };
+  return decay_with(formation, tr, gamma_h, Gate{}, ml, table, b, o, sm);
+}
+
+Decay decay_along_spinning(const Formation& formation, double hole_spin, const SpinningRates& rates,
+                           const tunnelling::ActionTable& table, const cosmology::Background& b, const DecayOptions& o,
+                           const higgs::StandardModelPotential* sm) {
+  const evaporation::SpinningClock clock(*rates.kerr, *rates.schwarzschild, formation.mass, hole_spin,
+                                         rates.trajectory);
+  const auto gamma_h = [&](double m, const tunnelling::Rates&) { return clock.evaporation_rate(m); };
+  const Gate gate{hole_spin <= rates.spin_limit ? formation.mass : clock.mass_at_spin(rates.spin_limit)};
+  Decay d = decay_with(formation, clock, gamma_h, gate, *rates.schwarzschild, table, b, o, sm);
+  d.gate_mass = gate.mass;
+  if (d.crossover_mass) {
+    d.spin_at_crossover = clock.spin_at(*d.crossover_mass);
+    d.spinning_crossover = *d.spin_at_crossover > rates.spin_limit;
+  }
   return d;
 }
 

@@ -127,7 +127,7 @@ std::string constraint_csv(const scenario::LoadedScenario& l, const pipeline::Jo
 }
 
 // One decay.csv row: a formation mass under one prescription.
-std::string decay_row(const pipeline::PrescriptionOutcome& o, std::size_t i) {
+std::string decay_row(const pipeline::PrescriptionOutcome& o, std::size_t i, bool spinning) {
   const population::Response& resp = o.scan[i];
   const auto& d = resp.decay;
   const auto share = [](double part, double whole) {
@@ -143,7 +143,11 @@ std::string decay_row(const pipeline::PrescriptionOutcome& o, std::size_t i) {
                      d.crossover_mass ? cell(d.plasma_at_crossover) : std::string(),
                      cell(share(d.postponed.probability, d.counted.probability)),
                      cell(share(d.probability_semiclassical, d.probability)));
-  return out + "," + (i < o.dn_dlnm.size() ? cell(o.dn_dlnm[i]) : std::string()) + "\n";
+  out += "," + (i < o.dn_dlnm.size() ? cell(o.dn_dlnm[i]) : std::string());
+  if (spinning)
+    out += fmt::format(",{},{},{}", std::isfinite(d.gate_mass) ? cell(d.gate_mass / u::gram) : std::string(),
+                       cell(d.spin_at_crossover), cell(resp.spinning_crossover_share));
+  return out + "\n";
 }
 
 std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResults& r) {
@@ -169,13 +173,23 @@ std::string decay_csv(const scenario::LoadedScenario& l, const pipeline::JobResu
                   "N all comes from its one mass",
                   "rows: one per prescription and formation mass (long form), prescription by prescription",
                   "empty cell: none (no crossover, or no decay)"});
+  if (r.spinning)
+    out.insert(out.rfind("# empty cell"),
+               fmt::format("# spinning holes ({}): lifetimes and times on the Kerr rates; the seeded rate counts only "
+                           "below spin_gate_mass_g, where a* has fallen to spin_limit = {}; hole_spin_at_crossover: a* "
+                           "where Gamma_D first reaches Gamma_H; spinning_crossover_share: the share of the holes "
+                           "whose crossover comes at a* above the limit (no prescription in Ember treats such seeds); "
+                           "with several spins, P_decay and the hazards are means over them, lifetime and crossover "
+                           "those of the median spin\n",
+                           r.hole_spin, format_real(r.spin_limit)));
   out +=
       "formation_mass_g,formation_time_s,lifetime_s,evaporated,formed_below_floor,prescription,P_decay,hazard,"
       "hazard_time,crossover_mass_g,decay_time_s,plasma_T_decay_GeV,plasma_T_crossover_GeV,hot_era_share,"
-      "low_action_share,dN_dlnM\n";
+      "low_action_share,dN_dlnM";
+  out += r.spinning ? ",spin_gate_mass_g,hole_spin_at_crossover,spinning_crossover_share\n" : "\n";
   // Long (tidy) form: one row per prescription and formation mass, prescription by prescription.
   for (const auto& o : r.outcomes)
-    for (std::size_t i = 0; i < o.scan.size(); ++i) out += decay_row(o, i);
+    for (std::size_t i = 0; i < o.scan.size(); ++i) out += decay_row(o, i, r.spinning);
   return out;
 }
 
@@ -210,10 +224,17 @@ std::string potential_csv(const scenario::LoadedScenario& l, const pipeline::Job
 
 }  // namespace
 
+namespace {
+bool born_spinning(const scenario::Scenario& s) {
+  const auto* f = std::get_if<scenario::FixedSpin>(&s.population.hole_spin);
+  return !f || f->value > 0;
+}
+}  // namespace
+
 std::vector<std::string> cautions(const scenario::Scenario& s) {
   std::vector<std::string> names;
   for (const auto p : s.tunnelling.prescriptions) names.push_back(tunnelling::name_of(p));
-  return {
+  std::vector<std::string> out{
       fmt::format("These are semiclassical estimates under the named rate prescription(s): {}.",
                   join_alternatives(names, "and")),
       "The literature disagrees on the right prescription (the hole's quantum state; whether the enhancement is only a "
@@ -231,6 +252,14 @@ std::vector<std::string> cautions(const scenario::Scenario& s) {
                   "gives the share of N that rests on them.",
                   format_real(s.tunnelling.minimum_action)),
       "The constraint disappears if new physics stabilises the Higgs potential."};
+  if (born_spinning(s))
+    out.insert(out.end() - 1,
+               fmt::format("No prescription in Ember treats spinning seeds: along a spinning hole's evaporation (Kerr "
+                           "rates) the seeded rate for non-rotating seeds is counted only once a* has fallen to {} "
+                           "(tunnelling.spin_limit); where decay would outrun evaporation at a higher a*, summary.json "
+                           "gives the share of N from such points.",
+                           format_real(s.tunnelling.spin_limit)));
+  return out;
 }
 
 namespace {
@@ -281,6 +310,13 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["potential"] = r.potential;
   j["spectrum"] = r.spectrum;
   j["greybody_table"] = r.greybody;
+  if (r.spinning)
+    j["hole_spin"] = {{"distribution", r.hole_spin},
+                      {"kerr_table", r.kerr},
+                      {"spin_limit", r.spin_limit},
+                      {"note",
+                       "lifetimes on the Kerr rates; the seeded rate (non-rotating seeds) counts only once a* has "
+                       "fallen to spin_limit"}};
   if (r.stability) {
     const auto& st = *r.stability;
     j["higgs"] = {{"verdict", higgs::name_of(st.verdict)},
@@ -326,6 +362,9 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
         {"assumptions", tunnelling::assumptions(o.prescription)},
         {"table", o.table_summary},
         {"failure", o.failure.empty() ? ordered_json(nullptr) : ordered_json(o.failure)}});
+    if (r.spinning)
+      p["share_of_N_from_spinning_crossovers"] =
+          o.counts.lightcone > 0 ? o.counts.lightcone_spinning / o.counts.lightcone : 0.0;
     ps[tunnelling::name_of(o.prescription)] = std::move(p);
   }
   j["prescriptions"] = ps;
@@ -365,10 +404,11 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
                       {"width", f.width ? ordered_json(*f.width) : ordered_json(nullptr)},
                       {"reason", f.reason}});
   j["failed_points"] = failed;
-  j["survivors"] = {{"mass_g", r.survivors_mass / u::gram},
-                    {"note",
-                     "holes formed heavier than this survive today; their constraint comes only from the "
-                     "evaporated low-mass tail of an extended spectrum"}};
+  j["survivors"] = {
+      {"mass_g", r.survivors_mass / u::gram},
+      {"note", std::string("holes formed heavier than this survive today; their constraint comes only from the "
+                           "evaporated low-mass tail of an extended spectrum") +
+                   (r.spinning ? " (non-rotating holes: spinning ones live shorter, so heavier ones end today)" : "")}};
   j["timing"] = {{"seconds", r.seconds}};
   return j;
 }
@@ -413,6 +453,15 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
     t += fmt::format(" {} {:.3g}%;", tunnelling::name_of(o.prescription),
                      100 * share_resting_on(o.counts.lightcone_semiclassical, o.counts.lightcone));
   t += "\n";
+  if (r.spinning) {
+    t += fmt::format("  hole spin: {}; Kerr table {}; seeded rate counted once a* <= {}\n", r.hole_spin, r.kerr,
+                     format_real(r.spin_limit));
+    t += fmt::format("  share of N from points where decay outruns evaporation at a* > {}:", format_real(r.spin_limit));
+    for (const auto& o : r.outcomes)
+      t += fmt::format(" {} {:.3g}%;", tunnelling::name_of(o.prescription),
+                       o.counts.lightcone > 0 ? 100 * o.counts.lightcone_spinning / o.counts.lightcone : 0.0);
+    t += "\n";
+  }
   if (const auto note = detail::flat_band_note(r)) t += "  band: " + *note + "\n";
   if (!r.failures.empty())
     t += fmt::format("  failed points: {} (in summary.json failed_points; the rest of the scan went on); first: {}\n",

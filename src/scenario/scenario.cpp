@@ -43,6 +43,14 @@ Spectrum read_spectrum(const YAML::Node& n) {
   return TabulatedSpectrum{n["file"].Scalar(), n["mass_unit"].Scalar()};
 }
 
+HoleSpin read_hole_spin(const YAML::Node& n) {
+  const std::string d = n["distribution"].Scalar();
+  if (d == "uniform") return UniformSpin{num(n["low"]), num(n["high"])};
+  if (d == "gaussian") return GaussianSpin{num(n["mean"]), num(n["width"])};
+  if (d == "table") return TabulatedSpin{n["file"].Scalar()};
+  return FixedSpin{num(n["value"])};
+}
+
 Abundance read_abundance(const YAML::Node& n) {
   const std::string m = n["measure"].Scalar();
   const AbundanceMeasure measure = m == "beta"    ? AbundanceMeasure::beta
@@ -71,6 +79,7 @@ TunnellingChoices read_tunnelling(const YAML::Node& n) {
   t.hot_bubble_volume = num(n["hot_bubble_volume"]);
   t.minimum_action = num(n["minimum_action"]);
   t.hot_era = n["hot_era"].Scalar() == "count" ? population::HotEra::count : population::HotEra::postpone;
+  t.spin_limit = num(n["spin_limit"]);
   const YAML::Node wall = n["thin_wall"];
   if (wall["tension"]) t.wall_tension = qty(wall["tension"], {units::Dimension::energy, 3});
   if (wall["energy_gap"]) t.energy_gap = qty(wall["energy_gap"], {units::Dimension::energy, 4});
@@ -84,6 +93,7 @@ EvaporationChoices read_evaporation(const YAML::Node& n) {
   e.mass_loss.argument = n["greybody_argument"].Scalar() == "momentum" ? evaporation::GreybodyArgument::momentum
                                                                        : evaporation::GreybodyArgument::energy;
   e.trajectory.cutoff_mass = mass(n["cutoff_mass"]);
+  if (n["kerr_table"]) e.kerr_table = n["kerr_table"].Scalar();
   if (n["greybody_table"].Scalar() == "computed") {
     e.computed_greybody.emplace();
     e.computed_greybody->points_per_mode = whole(n["greybody_points"]);
@@ -136,7 +146,8 @@ Scenario read_scenario(const YAML::Node& r) {
   return Scenario{
       r["title"].Scalar(),
       Population{read_spectrum(pop["spectrum"]), read_abundance(pop["abundance"]), num(pop["collapse_fraction"]),
-                 pop["cut_below"] ? std::optional<double>(mass(pop["cut_below"])) : std::nullopt},
+                 pop["cut_below"] ? std::optional<double>(mass(pop["cut_below"])) : std::nullopt,
+                 read_hole_spin(pop["hole_spin"])},
       StandardModelInputs{
           {mass(sm["top_mass"]), mass(sm["higgs_mass"]), num(sm["alpha_s"]), mass(sm["w_mass"]), whole(sm["loops"])},
           read_potential(sm["potential"])},

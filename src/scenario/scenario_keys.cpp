@@ -20,6 +20,7 @@
 #include "ember/cosmology/background.hpp"
 #include "ember/evaporation/mass_loss.hpp"
 #include "ember/evaporation/trajectory.hpp"
+#include "ember/greybody/kerr_table.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/higgs/inputs.hpp"
 #include "ember/population/counts.hpp"
@@ -39,6 +40,11 @@ Range formable() {
 }
 
 using units::Sign;
+
+// The shipped Kerr table's top node: a* beyond it has no greybody factors.
+double max_hole_spin() {
+  return greybody::KerrBuildOptions{}.hole_spins.back();
+}
 
 // A default owned by a physics module's options, as the schema writes it: value and unit.
 std::string in_planck_masses(double mass) {
@@ -97,8 +103,31 @@ Key population() {
                                   }),
                            "");
 
+  const std::string top = format_real(max_hole_spin());
+  Key hole_spin = choice(
+      "hole_spin",
+      "the spin a* = J c / (G M^2) the holes are born with, the same at every formation mass (up to " + top +
+          ", the Kerr greybody table's top node); spinning holes evaporate on the Kerr rates",
+      "distribution",
+      {
+          {"fixed", "every hole forms with one a*", {number("value", "a*", "0", between(0, max_hole_spin()))}},
+          {"uniform",
+           "a* uniform between two values",
+           {required(number("low", "lowest a*", std::nullopt, between(0, max_hole_spin())), "0.2"),
+            required(number("high", "highest a*", std::nullopt, between(0, max_hole_spin())), "0.8")}},
+          {"gaussian",
+           "a* ~ exp(-(a* - mean)^2 / (2 width^2)), truncated to [0, " + top + "]",
+           {required(number("mean", "the peak a*", std::nullopt, between(0, max_hole_spin())), "0.7"),
+            required(number("width", "the width in a*", std::nullopt, above_up_to(0, 1)), "0.1")}},
+          {"table",
+           "a* and a density from a two-column text file (a* increasing, density >= 0; need not be normalised)",
+           {required(input_file("file", "table of a* and density; lines starting with # are comments"), "spins.tsv")}},
+      },
+      "fixed");
+  hole_spin = ordered(std::move(hole_spin), {{"low", "high", true}});
+
   return section("population", "the primordial black holes",
-                 {spectrum, abundance,
+                 {spectrum, abundance, hole_spin,
                   number("collapse_fraction", "gamma: formation mass over the horizon mass",
                          format_real(population::ResponseContext{}.collapse_fraction), above_up_to(0, 1)),
                   with_example(quantity("cut_below",
@@ -172,6 +201,10 @@ Key evaporation() {
                "computed: grid points per greybody mode, log-uniform in x = GM omega/c^3 over "
                "[1e-3, 5]",
                std::to_string(greybody::BuildOptions{}.points_per_mode), between(8, 10000)),
+       with_example(input_file("kerr_table",
+                               "spinning holes: the Kerr greybody table (written by ember greybody --rebuild-kerr); "
+                               "absent: the shipped data/kerr_greybody.tsv"),
+                    "my_kerr_greybody.tsv"),
        quantity("cutoff_mass", "mass where numerical integration stops and the analytic end takes over", units::mass,
                 "Mpl", in_planck_masses(evaporation::TrajectoryOptions{}.cutoff_mass), at_least(1))});
 }
@@ -207,6 +240,10 @@ Key tunnelling() {
               "false vacuum: postpone = not counted until the plasma has cooled; count = counted as if the exterior "
               "were cold, and flagged (summary.json gives N both ways)",
               {"postpone", "count"}, population::name_of(population::DecayOptions{}.hot_era)),
+       number("spin_limit",
+              "spinning holes: the seeded rate (for non-rotating seeds) counts only once a* has fallen to this; "
+              "where decay outruns evaporation at a higher a*, the point is flagged and its share of N reported",
+              format_real(population::spin_limit), above_up_to(0, 0.5)),
        section("thin_wall", "thin_wall: the wall of a user's thin-wall potential",
                {with_example(quantity("tension", "wall tension sigma", {units::Dimension::energy, 3}, "GeV^3",
                                       std::nullopt, above(0)),

@@ -215,4 +215,55 @@ run "adopted folder" 0 -- "$ember" run "$work/demo-summary-only.yaml" -o "$work/
 [[ -s "$work/foreign/summary.json" && $(cat "$work/foreign/chapter1.tex") == "thesis draft" ]] ||
   fail "adopted folder: expected the summary beside the untouched file"
 
+# --- spinning holes -------------------------------------------------------------------------------
+# The shipped spinning scenario, cut down: holes at 6.2e14 g end today only when born spinning
+# (`ember evaporate --lifetime "13.787 Gyr"`: 5.31e14 g at a* = 0, 6.41e14 g at a* = 0.9).
+spin_small() {  # FILE SPIN_BLOCK: the scenario with its hole_spin block replaced
+  sed -e 's/points: 29/points: 3/' -e 's/from: 1e14 g/from: 5e14 g/' -e 's/to: 1.5e15 g/to: 7e14 g/' \
+    -e 's/mass: 6.5e14 g/mass: 6.2e14 g/' -e 's/\[entropy_drop, probe_field\]/[probe_field]/' \
+    -e 's|directory: ember-out/spinning|directory: unused|' -e '/^  hole_spin:/,/^$/d' \
+    -e 's/^scan:$/scan:\n  thresholds: {inputs: []}/' "$src/configs/spinning_matter_era.yaml" >"$1"
+  [[ -n "${2:-}" ]] && sed -i "s|^  abundance:|  hole_spin: $2\n  abundance:|" "$1"
+  return 0
+}
+spin_small "$work/spin.yaml" "{distribution: fixed, value: 0.9}"
+spin_small "$work/still.yaml" ""
+run "spinning run" 0 -- "$ember" run "$work/spin.yaml" -o "$work/spin" --no-plots --quiet
+stdout_has "spinning run" "hole spin: a* = 0.9 for every hole"
+stdout_has "spinning run" "No prescription in Ember treats spinning seeds"
+stdout_has "spinning run" "EXCLUDED"
+run "still run" 0 -- "$ember" run "$work/still.yaml" -o "$work/still" --no-plots --quiet
+stdout_has "still run" "allowed"
+grep -q "hole spin" "$work/out" && fail "still run: a hole-spin line for holes born without spin"
+grep -qiE '(^|[,:[ ])-?(nan|inf|infinity)([],} ]|$)' "$work/spin/"*.csv "$work/spin/summary.json" && fail "spinning run: NaN or inf in the outputs"
+grep -q "^formation_mass_g,.*,spin_gate_mass_g,hole_spin_at_crossover,spinning_crossover_share$" "$work/spin/decay.csv" ||
+  fail "spinning run: decay.csv lacks the spin columns"
+grep -q "spin_gate_mass_g" "$work/still/decay.csv" && fail "still run: decay.csv has spin columns"
+/usr/bin/python3 - "$work/spin" "$work/still" <<'PY' || fail "spinning run: summary.json"
+import json, sys
+spin, still = (json.load(open(d + "/summary.json")) for d in sys.argv[1:3])
+p = spin["prescriptions"]["probe_field"]
+assert spin["hole_spin"]["spin_limit"] == 0.1, spin["hole_spin"]
+assert p["share_of_N_from_spinning_crossovers"] == 0.0, p  # the crossover comes near 30 g
+assert p["excluded"] and p["N_lightcone"] > 1, p
+assert not still["prescriptions"]["probe_field"]["excluded"]
+assert "hole_spin" not in still and "share_of_N_from_spinning_crossovers" not in still["prescriptions"]["probe_field"]
+PY
+# a* = 0 written out is the default: the same resolved scenario, the same numbers.
+spin_small "$work/zero.yaml" "{distribution: fixed, value: 0}"
+run "zero spin run" 0 -- "$ember" run "$work/zero.yaml" -o "$work/zero" --no-plots --quiet
+for f in constraint.csv decay.csv; do  # the numbers; the comment lines name the scenario file
+  cmp -s <(grep -v '^#' "$work/zero/$f") <(grep -v '^#' "$work/still/$f") || fail "zero spin run: $f differs from the default's"
+done
+# Two runs' curves on one figure.
+if /usr/bin/python3 -c "import matplotlib" 2>/dev/null; then
+  run "compare" 0 -- /usr/bin/python3 "$src/scripts/plot" "$work/spin" --compare "$work/still" --formats png
+  [[ -s "$work/spin/compare.png" ]] || fail "compare: no compare.png"
+fi
+printf '0.5 1\n0.3 1\n' >"$work/bad_spins.tsv"
+spin_small "$work/bad_spin.yaml" "{distribution: table, file: $work/bad_spins.tsv}"
+run "bad spin table" 2 -- "$ember" run "$work/bad_spin.yaml" -o "$work/bad_spin" --no-plots --quiet
+stderr_has "bad spin table" "bad_spins.tsv:2"
+[[ -e "$work/bad_spin/summary.json" ]] && fail "bad spin table: an output was written"
+
 finish "ember run"

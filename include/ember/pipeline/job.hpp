@@ -154,6 +154,10 @@ struct JobResults {
   std::string spectrum;                                         // description
   double spectrum_mass = 0;                 // its formation (monochromatic) or characteristic mass, GeV
   std::string greybody;                     // which greybody table, and its stated error
+  std::string hole_spin;                    // the spins the holes are born with (description)
+  bool spinning = false;                    // some holes are born with a* > 0: Kerr clock, spin gate
+  double spin_limit = 0;                    // the seeded rate counts once a* has fallen to this
+  std::string kerr;                         // spinning: which Kerr table, and the rates' stated error
   std::optional<bool> greybody_from_cache;  // a computed table: read from the cache or built
   bool no_constraint = false;               // stable potential or no bubble: no seeded decay at all
   std::string no_constraint_reason;

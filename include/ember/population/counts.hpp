@@ -31,6 +31,10 @@ struct Response {
   // lightcone_per_beta under each treatment of the hot era (decay.hpp), and (chosen treatment)
   // from the points with B >= minimum_action only (at the chosen decay time's light cone).
   double lightcone_per_beta_counted = 0, lightcone_per_beta_postponed = 0, lightcone_per_beta_semiclassical = 0;
+  // Spinning populations: the part of lightcone_per_beta from spins whose crossover comes while a*
+  // is above the spin limit (Decay::spinning_crossover), and their share of the holes.
+  double lightcone_per_beta_spinning = 0;
+  double spinning_crossover_share = 0;
 };
 
 struct ResponseContext {
@@ -42,6 +46,12 @@ struct ResponseContext {
   // The Standard Model potential, when it is the one in use: the plasma's thermal mass
   // (plasma.hpp, rule (b)); null otherwise.
   const higgs::StandardModelPotential* standard_model = nullptr;
+  // The spins the holes are born with; with any a* > 0, `spinning.kerr` must be set. Each response
+  // then sums over the spin nodes: the counts per beta exactly; in its `decay`, P_decay, the
+  // hazards and their shares are weighted means over the nodes, the decay time the
+  // probability-weighted mean, the rest that of the median node.
+  SpinDistribution hole_spin;
+  SpinningRates spinning;
 };
 
 Response response_at(double mass, const tunnelling::ActionTable& table, const ResponseContext& c);
@@ -62,6 +72,9 @@ struct Counts {
   double from_evaporated = 0;  // the part of N from holes that are gone by today
   // N under each treatment of the hot era, and (chosen treatment) from points with B >= minimum_action.
   double lightcone_counted = 0, lightcone_postponed = 0, lightcone_semiclassical = 0;
+  // Spinning populations: the part of N from holes whose crossover comes while a* is above the
+  // spin limit (Response::lightcone_per_beta_spinning).
+  double lightcone_spinning = 0;
 };
 
 // Counts for a spectrum with its abundance; the responses must cover the spectrum's support

@@ -20,11 +20,14 @@
 // found on the decay grid and refined by bisection, then integrated piece by piece.
 #pragma once
 
+#include <cmath>
 #include <optional>
 
 #include "ember/cosmology/background.hpp"
+#include "ember/evaporation/kerr_mass_loss.hpp"
 #include "ember/evaporation/trajectory.hpp"
 #include "ember/population/formation.hpp"
+#include "ember/population/hole_spin.hpp"
 #include "ember/population/plasma.hpp"
 #include "ember/tunnelling/action_table.hpp"
 #include "ember/tunnelling/rate.hpp"
@@ -67,12 +70,37 @@ struct Decay {
   double plasma_at_decay = 0;            // T_p at decay_time, GeV; 0 if P = 0
   double plasma_at_crossover = 0;        // T_p when Gamma_D first reaches Gamma_H, GeV; 0 if none
   std::optional<double> cooled_time;     // first time the plasma is cold enough (GeV^-1); none: never
+  // A hole born spinning (decay_along_spinning): the seeded rate counts only below gate_mass,
+  // where a* has fallen to the spin limit; the spin at the crossover, and whether it was still
+  // above the limit there (no prescription in Ember treats such a seed). Non-rotating: infinite,
+  // none, false.
+  double gate_mass = HUGE_VAL;
+  std::optional<double> spin_at_crossover;
+  bool spinning_crossover = false;
 };
 
 Decay decay_along(const Formation& formation, const evaporation::MassLoss& mass_loss,
                   const evaporation::TrajectoryOptions& trajectory, const tunnelling::ActionTable& table,
                   const cosmology::Background& background, const DecayOptions& options = {},
                   const higgs::StandardModelPotential* standard_model = nullptr);
+
+// What a spinning hole's decay needs besides the table: the Kerr rates for the clock, the
+// Schwarzschild ones for the handover (evaporation/spinning_clock.hpp), and the spin limit.
+struct SpinningRates {
+  const evaporation::KerrMassLoss* kerr = nullptr;
+  const evaporation::MassLoss* schwarzschild = nullptr;
+  evaporation::TrajectoryOptions trajectory;
+  double spin_limit = population::spin_limit;
+};
+
+// A hole born with a* = hole_spin > 0: the clock and Gamma_H from the Kerr rates, Gamma_D from
+// the (non-rotating) table, counted only where a* <= spin_limit. The restricted hazards, the
+// decay time and the time-integral cross-check are all taken over those masses; the crossover
+// (the first mass with Gamma_D >= Gamma_H) over the whole history, as a flag.
+Decay decay_along_spinning(const Formation& formation, double hole_spin, const SpinningRates& rates,
+                           const tunnelling::ActionTable& table, const cosmology::Background& background,
+                           const DecayOptions& options = {},
+                           const higgs::StandardModelPotential* standard_model = nullptr);
 
 // Expected decays per unit beta: in our past light cone, and per Hubble volume at the decay.
 double lightcone_decays_per_beta(const Formation& f, const Decay& d);

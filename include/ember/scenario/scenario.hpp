@@ -41,6 +41,21 @@ struct TabulatedSpectrum {
 };
 using Spectrum = std::variant<Monochromatic, Lognormal, PowerLaw, CriticalCollapse, TabulatedSpectrum>;
 
+// The spins the holes are born with (population/hole_spin.hpp builds the nodes).
+struct FixedSpin {
+  double value;
+};
+struct UniformSpin {
+  double low, high;
+};
+struct GaussianSpin {
+  double mean, width;
+};
+struct TabulatedSpin {
+  std::filesystem::path file;
+};
+using HoleSpin = std::variant<FixedSpin, UniformSpin, GaussianSpin, TabulatedSpin>;
+
 using population::AbundanceMeasure;  // beta, f_pbh or lightcone_count
 struct Abundance {
   AbundanceMeasure measure;
@@ -52,6 +67,7 @@ struct Population {
   Abundance abundance;
   double collapse_fraction;
   std::optional<double> cut_below;  // GeV: no holes below this mass (extended spectra)
+  HoleSpin hole_spin;
 };
 
 // --- Standard Model inputs and the potential ---------------------------------------------------
@@ -84,6 +100,7 @@ struct EvaporationChoices {
   evaporation::TrajectoryOptions trajectory;  // cutoff_mass
   // The greybody table: the shipped file, or (when set) computed with these options and cached.
   std::optional<greybody::BuildOptions> computed_greybody;
+  std::optional<std::filesystem::path> kerr_table;  // spinning holes; none: the shipped table
 };
 
 using tunnelling::Prefactor;
@@ -95,6 +112,7 @@ struct TunnellingChoices {
   double hot_bubble_volume;            // in units of 4 pi r_h^3 / 3
   double minimum_action;               // B below this is flagged (tunnelling::TunnellingSetup)
   population::HotEra hot_era;          // decays while the plasma is too hot: postponed or counted
+  double spin_limit;                   // spinning holes: the seeded rate counts below this a*
   std::optional<double> wall_tension;  // GeV^3
   std::optional<double> energy_gap;    // GeV^4
 };
