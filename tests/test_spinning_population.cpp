@@ -117,6 +117,13 @@ TEST_CASE("the spinning clock: Kerr until the spin is gone, then Schwarzschild")
   CHECK(gate < m0);
   CHECK(clock.spin_at(gate) == doctest::Approx(population::spin_limit).epsilon(1e-6));
   CHECK(close(clock.evaporation_rate(gate), kerr().alpha(gate, population::spin_limit) / std::pow(gate, 3), 1e-6));
+  // The mass that ends today at a* = 0.9: the Kerr trajectory run to the cutoff gives it the same
+  // lifetime (2e-4, as above), and it lies above the non-rotating survivor mass (Page 1976: spin
+  // shortens the life).
+  const double today = 13.787e9 * u::year;
+  const double ending = evaporation::spinning_mass_with_lifetime(kerr(), mass_loss(), 0.9, today);
+  CHECK(close(evaporation::KerrTrajectory(kerr(), ending, 0.9).lifetime(), today, 2e-4));
+  CHECK(ending > 1.1 * evaporation::mass_with_lifetime(mass_loss(), today));
   // a* -> 0: the Schwarzschild lifetime, to the Kerr table's a* = 0 node (within 2e-4 of the
   // Schwarzschild table: test_kerr_evaporation.cpp).
   const evaporation::SpinningClock slow(kerr(), mass_loss(), m0, 1e-3);

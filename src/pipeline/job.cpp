@@ -16,6 +16,7 @@
 #include "ember/core/text.hpp"
 #include "ember/evaporation/kerr_mass_loss.hpp"
 #include "ember/evaporation/mass_loss_cache.hpp"
+#include "ember/evaporation/spinning_clock.hpp"
 #include "ember/greybody/kerr_table.hpp"
 #include "ember/greybody/table.hpp"
 #include "ember/greybody/table_cache.hpp"
@@ -163,6 +164,12 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
 
   const population::SpinDistribution spins = hole_spins_of(s);
   const std::optional<evaporation::KerrMassLoss> kerr = kerr_rates_for(s, spins, out);
+  if (kerr) {  // heavier holes survive today whatever their spin: the fastest spin sets the mass
+    double fastest = 0;
+    for (const auto& n : spins.nodes) fastest = std::max(fastest, n.spin);
+    out.survivors_mass =
+        evaporation::spinning_mass_with_lifetime(*kerr, mass_loss, fastest, background.age(), s.evaporation.trajectory);
+  }
   out.hole_spin = spins.description;
   out.spinning = spins.spinning();
   out.spin_limit = s.tunnelling.spin_limit;

@@ -406,9 +406,10 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["failed_points"] = failed;
   j["survivors"] = {
       {"mass_g", r.survivors_mass / u::gram},
-      {"note", std::string("holes formed heavier than this survive today; their constraint comes only from the "
-                           "evaporated low-mass tail of an extended spectrum") +
-                   (r.spinning ? " (non-rotating holes: spinning ones live shorter, so heavier ones end today)" : "")}};
+      {"note",
+       std::string("holes formed heavier than this survive today; their constraint comes only from the "
+                   "evaporated low-mass tail of an extended spectrum") +
+           (r.spinning ? " (spinning holes: at the fastest spin of the distribution, which ends soonest)" : "")}};
   j["timing"] = {{"seconds", r.seconds}};
   return j;
 }
