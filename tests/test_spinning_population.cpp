@@ -14,36 +14,22 @@ using namespace ember;
 namespace u = ember::units;
 using ember::testing::close;
 using ember::testing::source_dir;
+using ember::testing::standard_model;
 
 namespace {
 const cosmology::Background& background() {
   return ember::testing::planck_background();
 }
 const evaporation::MassLoss& mass_loss() {
-  static const evaporation::MassLoss ml(greybody::load_table(source_dir / "data/greybody.tsv"),
-                                        evaporation::load_particles(source_dir / "data/particles.yaml"));
-  return ml;
+  return ember::testing::shipped_mass_loss();
 }
 const evaporation::KerrMassLoss& kerr() {
   static const evaporation::KerrMassLoss ml(greybody::load_kerr_table(source_dir / "data/kerr_greybody.tsv"),
                                             evaporation::load_particles(source_dir / "data/particles.yaml"));
   return ml;
 }
-const higgs::StandardModelPotential& standard_model() {
-  static const higgs::StandardModelPotential sm(std::make_shared<const higgs::Running>(higgs::default_inputs()));
-  return sm;
-}
 const tunnelling::ActionTable& probe_table() {
-  static const tunnelling::ActionTable t = [] {
-    tunnelling::TunnellingSetup s;
-    s.potential = &standard_model();
-    s.standard_model = &standard_model();
-    tunnelling::ActionTableOptions o;
-    o.points = 30;
-    o.midpoint_stride = 6;
-    return tunnelling::ActionTable(tunnelling::Prescription::probe_field, s, o);
-  }();
-  return t;
+  return ember::testing::coarse_probe_table();
 }
 population::ResponseContext context(double spin) {
   population::ResponseContext c;

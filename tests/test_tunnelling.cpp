@@ -35,10 +35,7 @@ higgs::PolynomialPotential thin_wall_toy(double a, double eps) {
   return higgs::PolynomialPotential(a, {0, 0, 0.5 - 0.75 * eps, -0.5 + 0.25 * eps, 0.125});
 }
 
-const higgs::StandardModelPotential& standard_model() {
-  static const higgs::StandardModelPotential sm(std::make_shared<const higgs::Running>(higgs::default_inputs()));
-  return sm;
-}
+using ember::testing::standard_model;
 TunnellingSetup sm_setup() {
   TunnellingSetup s;
   s.potential = &standard_model();

@@ -161,6 +161,21 @@ std::filesystem::path rebuilt_table_path(const GreybodyOptions& o, const char* f
   return *cache / name;
 }
 
+// What a rebuild prints: the file, the build's counts and the table's stated error.
+int report_rebuilt(const GreybodyOptions& o, const std::filesystem::path& out, const std::string& message,
+                   double interpolation_error, nlohmann::ordered_json counts) {
+  if (o.json) {
+    nlohmann::ordered_json j = {{"file", out.string()}};
+    j.update(counts);
+    j["interpolation_error"] = interpolation_error;
+    print_json(j);
+  } else {
+    std::cout << fmt::format("wrote {}: {}; stated interpolation error {:.1e}\n", out.string(), message,
+                             interpolation_error);
+  }
+  return exit_ok;
+}
+
 int rebuild(const GreybodyOptions& o) {
   BuildOptions options;
   options.quiet = o.quiet;
@@ -169,19 +184,12 @@ int rebuild(const GreybodyOptions& o) {
   BuildSummary summary;
   const Table table = build_table(options, &summary);
   write_file_atomically(out, format_table(table, {}));
-  if (o.json) {
-    print_json({{"file", out.string()},
-                {"modes", summary.modes},
-                {"solves", summary.solves},
-                {"rhs_evaluations", summary.rhs_evaluations},
-                {"seconds", summary.seconds},
-                {"max_midpoint_error", summary.max_midpoint_error},
-                {"interpolation_error", table.header().interpolation_error}});
-  } else {
-    std::cout << fmt::format("wrote {}: {}; stated interpolation error {:.1e}\n", out.string(), summary.message,
-                             table.header().interpolation_error);
-  }
-  return exit_ok;
+  return report_rebuilt(o, out, summary.message, table.header().interpolation_error,
+                        {{"modes", summary.modes},
+                         {"solves", summary.solves},
+                         {"rhs_evaluations", summary.rhs_evaluations},
+                         {"seconds", summary.seconds},
+                         {"max_midpoint_error", summary.max_midpoint_error}});
 }
 
 int rebuild_kerr(const GreybodyOptions& o) {
@@ -193,19 +201,12 @@ int rebuild_kerr(const GreybodyOptions& o) {
   KerrBuildSummary summary;
   const KerrTable table = build_kerr_table(options, &summary);
   write_file_atomically(out, format_kerr_table(table, {}));
-  if (o.json) {
-    print_json({{"file", out.string()},
-                {"modes", summary.modes},
-                {"solves", summary.solves},
-                {"rows", table.rows().size()},
-                {"seconds", summary.seconds},
-                {"max_midpoint_error", summary.max_midpoint_error},
-                {"interpolation_error", table.header().interpolation_error}});
-  } else {
-    std::cout << fmt::format("wrote {}: {}; stated interpolation error {:.1e}\n", out.string(), summary.message,
-                             table.header().interpolation_error);
-  }
-  return exit_ok;
+  return report_rebuilt(o, out, summary.message, table.header().interpolation_error,
+                        {{"modes", summary.modes},
+                         {"solves", summary.solves},
+                         {"rows", table.rows().size()},
+                         {"seconds", summary.seconds},
+                         {"max_midpoint_error", summary.max_midpoint_error}});
 }
 
 }  // namespace

@@ -17,18 +17,16 @@
 #include "ember/core/parallel.hpp"
 #include "ember/greybody/kerr_emission.hpp"
 #include "ember/units/constants.hpp"
+#include "kernel_grid.hpp"
 
 namespace ember::evaporation {
 
 namespace {
 using units::pi;
-constexpr int kerr_spin_order[] = {0, 1, 2, 4};
+using kernel_grid::spin_index;
+using kernel_grid::spin_order;
 
-int kerr_kernel_index(int twice_spin) {
-  return twice_spin == 4 ? 3 : twice_spin;
-}
-
-// The kernels' grid in the cut x_c: v = ln x_c below 1 and x_c - 1 above (as mass_loss.cpp),
+// The kernels' grid in the cut x_c: v = kernel_grid::v_of(x_c), as the Schwarzschild kernels,
 // from kerr_cut_min (below it J(x_c) = J(kerr_cut_min): the part cut off is O(x_c^3) of a power
 // that starts at x ~ T_H) to the node's highest mode top, in steps of kerr_cut_spacing; each
 // piece by one 21-point Gauss-Kronrod rule (the integrand is smooth through every threshold:
@@ -36,13 +34,6 @@ int kerr_kernel_index(int twice_spin) {
 constexpr double kerr_cut_min = 1e-6;
 constexpr double kerr_cut_spacing = 0.05;
 constexpr std::size_t kerr_rule_points = 20;
-
-double cut_v(double a) {
-  return a < 1 ? std::log(a) : a - 1;
-}
-double cut_a(double v) {
-  return v < 0 ? std::exp(v) : v + 1;
-}
 
 // b = sqrt(1 - a*^2), the variable between nodes.
 double spin_b(double a) {
@@ -65,15 +56,15 @@ struct KerrMassLoss::NodeKernels {
   Kernel by_spin[4];
 
   double power(int twice_spin, double cut) const {
-    const Kernel& k = by_spin[kerr_kernel_index(twice_spin)];
+    const Kernel& k = by_spin[spin_index(twice_spin)];
     if (cut <= kerr_cut_min) return k.power_at_min;
-    const double v = cut_v(cut);
+    const double v = kernel_grid::v_of(cut);
     return v >= k.v_top ? 0.0 : std::exp(k.power->value(v));
   }
   double torque(int twice_spin, double cut) const {
-    const Kernel& k = by_spin[kerr_kernel_index(twice_spin)];
+    const Kernel& k = by_spin[spin_index(twice_spin)];
     if (cut <= kerr_cut_min) return k.torque_at_min;
-    const double v = cut_v(cut);
+    const double v = kernel_grid::v_of(cut);
     return v >= k.v_top ? 0.0 : k.torque->value(v);
   }
 };
@@ -122,7 +113,7 @@ KerrMassLoss::NodeKernels::Kernel build_kerr_kernel(const greybody::KerrTable& t
     }
     return sum;
   };
-  const double v_lo = cut_v(kerr_cut_min), v_hi = cut_v(top);
+  const double v_lo = kernel_grid::v_of(kerr_cut_min), v_hi = kernel_grid::v_of(top);
   const int n = static_cast<int>(std::ceil((v_hi - v_lo) / kerr_cut_spacing));
   // Nodes 0 .. n-1 below the top; the piece from the last node to the top is in every sum, and
   // above the last node the kernels are taken as 0 (less than e^-60 of any node's value: the
@@ -132,7 +123,7 @@ KerrMassLoss::NodeKernels::Kernel build_kerr_kernel(const greybody::KerrTable& t
   for (int i = n - 1; i >= 0; --i) {
     const auto I = static_cast<std::size_t>(i);
     v[I] = v_lo + (v_hi - v_lo) * i / n;
-    const double lo = cut_a(v[I]);
+    const double lo = kernel_grid::a_of(v[I]);
     const auto piece = both(lo, upper);
     power += piece[0];
     torque += piece[1];
@@ -165,8 +156,8 @@ KerrMassLoss::KerrMassLoss(const greybody::KerrTable& table, ParticleSet particl
   const std::size_t tasks = spins_.size() * 4;
   parallel_for(tasks, default_threads(), [&](std::size_t t) {
     const std::size_t node = t / 4;
-    const int ts = kerr_spin_order[t % 4];
-    (*nodes)[node].by_spin[kerr_kernel_index(ts)] = build_kerr_kernel(table, node, ts);
+    const int ts = spin_order[t % 4];
+    (*nodes)[node].by_spin[spin_index(ts)] = build_kerr_kernel(table, node, ts);
   });
   for (std::size_t i = 0; i < spins_.size(); ++i) {
     (*nodes)[i].hole_spin = spins_[i];

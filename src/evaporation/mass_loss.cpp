@@ -16,30 +16,20 @@
 #include "ember/core/progress.hpp"
 #include "ember/core/record.hpp"
 #include "ember/units/constants.hpp"
+#include "kernel_grid.hpp"
 
 namespace ember::evaporation {
 
 namespace {
 using units::pi;
-constexpr int spin_order[] = {0, 1, 2, 4};
-
-int kernel_index(int twice_spin) {
-  return twice_spin == 4 ? 3 : twice_spin;
-}
+using kernel_grid::a_of;
+using kernel_grid::spin_order;
+using kernel_grid::v_of;
 
 // 1/(e^{8 pi x} -+ 1), minus for bosons.
 double thermal(double x, bool fermion) {
   const double a = 8 * pi * x;
   return fermion ? 1.0 / (std::expm1(a) + 2.0) : 1.0 / std::expm1(a);
-}
-
-// v = ln a below a = 1 and a - 1 above: uniform nodes in v are log-spaced where J is flat and
-// evenly spaced where it falls like e^{-8 pi a}; the map is C^1 at a = 1.
-double v_of(double a) {
-  return a < 1 ? std::log(a) : a - 1;
-}
-double a_of(double v) {
-  return v < 0 ? std::exp(v) : v + 1;
 }
 
 }  // namespace
@@ -145,7 +135,7 @@ struct MassLoss::Tabulated {
 
 // The species' emission integral over E >= m, times its weight at this hole's temperature.
 double MassLoss::window(const Species& s, double mass) const {
-  const Kernel& k = (*kernels_)[static_cast<std::size_t>(kernel_index(s.twice_spin))];
+  const Kernel& k = (*kernels_)[static_cast<std::size_t>(kernel_grid::spin_index(s.twice_spin))];
   const double a_m = s.mass * mass / (units::planck_mass * units::planck_mass);  // x = E M / M_Pl^2 at E = m
   const double t = hawking_temperature(mass);
   const double weight = s.window == Window::partons   ? parton_weight(t, options_)
