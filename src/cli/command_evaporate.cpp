@@ -332,7 +332,7 @@ nlohmann::ordered_json kerr_spin_down(Printout& p, const KerrTrajectory& tr) {
   return rows;
 }
 
-std::string kerr_csv(const KerrMassLoss& ml, const KerrTrajectory& tr, const EvaporateOptions& o) {
+std::string kerr_csv(const KerrTrajectory& tr, const EvaporateOptions& o) {
   std::string out = fmt::format(
       "# Ember evaporation trajectory of a {} g hole born with a* = {}\n"
       "# columns: age_s (time since formation), time_left_s, mass_g, hole_spin (a*), temperature_GeV\n"
@@ -341,7 +341,6 @@ std::string kerr_csv(const KerrMassLoss& ml, const KerrTrajectory& tr, const Eva
       "age_s,time_left_s,mass_g,hole_spin,temperature_GeV\n",
       format_real(tr.initial_mass() / u::gram), format_real(tr.initial_spin()), tr.cutoff_mass() / u::gram, o.qcd_scale,
       format_real(o.qcd_width), o.cutoff);
-  (void)ml;
   for (const auto& pt : tr.points())
     out += fmt::format("{:.12e},{:.12e},{:.12e},{:.12e},{:.12e}\n", pt.age / u::second,
                        (tr.lifetime() - pt.age) / u::second, pt.mass / u::gram, pt.hole_spin,
@@ -416,7 +415,7 @@ int kerr_by_mass(const EvaporateOptions& o) {
   p.text +=
       fmt::format("  integrated to {:.4g} g; analytic tail below ({:.3e} s, a* = {:.3g} there)\n  model: {}\n",
                   tr.cutoff_mass() / u::gram, tr.tail_duration() / u::second, tr.spin_at_cutoff(), kerr_model_line(ml));
-  return finish(p, o, [&] { return kerr_csv(ml, tr, o); });
+  return finish(p, o, [&] { return kerr_csv(tr, o); });
 }
 
 int kerr_by_lifetime(const EvaporateOptions& o) {
