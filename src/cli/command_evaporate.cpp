@@ -421,17 +421,9 @@ int kerr_by_mass(const EvaporateOptions& o) {
 int kerr_by_lifetime(const EvaporateOptions& o) {
   const double lifetime = quantity_option("--lifetime", o.lifetime, u::time);
   const KerrSetup s = kerr_setup(o);
-  const auto misfit = [&](double ln_m) {
-    return std::log(KerrTrajectory(s.mass_loss, std::exp(ln_m), s.hole_spin, s.trajectory).lifetime() / lifetime);
-  };
-  const double lo = std::log(1e-5 * u::gram), hi = std::log(1e40 * u::gram);
-  if (!(misfit(lo) < 0 && misfit(hi) > 0))
-    throw InputError(fmt::format("--lifetime {}: no mass in [1e-5, 1e40] g has it at a* = {}", o.lifetime,
-                                 format_real(s.hole_spin)));
-  const BrentResult r = brent_root(misfit, lo, hi, 1e-12);
-  if (!r.converged)
-    throw NumericalError("mass with a lifetime (GSL Brent)", fmt::format("bracket [{}, {}] ln GeV", r.lower, r.upper));
-  const double mass = std::exp(r.x);
+  const double mass = mass_with_lifetime_of(
+      [&](double m) { return KerrTrajectory(s.mass_loss, m, s.hole_spin, s.trajectory).lifetime(); }, lifetime,
+      fmt::format(" at a* = {}", format_real(s.hole_spin)));
   if (o.json)
     print_json({{"lifetime_s", lifetime / u::second},
                 {"hole_spin", s.hole_spin},

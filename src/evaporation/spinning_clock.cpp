@@ -4,9 +4,6 @@
 
 #include <cmath>
 
-#include "ember/core/errors.hpp"
-#include "ember/core/gsl_tools.hpp"
-#include "ember/units/constants.hpp"
 
 namespace ember::evaporation {
 
@@ -66,19 +63,9 @@ double SpinningClock::evaporation_rate(double mass) const {
 
 double spinning_mass_with_lifetime(const KerrMassLoss& kerr, const MassLoss& ml, double hole_spin, double lifetime,
                                    const TrajectoryOptions& options) {
-  const auto misfit = [&](double ln_m) {
-    return std::log(SpinningClock(kerr, ml, std::exp(ln_m), hole_spin, options).lifetime() / lifetime);
-  };
-  const double lo = std::log(1e-5 * units::gram), hi = std::log(1e40 * units::gram);
-  if (!(lifetime > 0) || !(misfit(lo) < 0 && misfit(hi) > 0))
-    throw InputError(fmt::format("lifetime {:.4g} s at a* = {}: no mass in [1e-5, 1e40] g has it",
-                                 lifetime / units::second, hole_spin));
-  // ln M to 1e-12: the mass to about 1e-12 relative.
-  const BrentResult r = brent_root(misfit, lo, hi, 1e-12);
-  if (!r.converged)
-    throw NumericalError("spinning mass with a lifetime (GSL Brent)",
-                         fmt::format("no convergence: ln M in [{}, {}] at a* = {}", r.lower, r.upper, hole_spin));
-  return std::exp(r.x);
+  return mass_with_lifetime_of(
+      [&](double m) { return SpinningClock(kerr, ml, m, hole_spin, options).lifetime(); }, lifetime,
+      fmt::format(" at a* = {}", hole_spin));
 }
 
 }  // namespace ember::evaporation

@@ -120,34 +120,27 @@ std::vector<DecadeTime> Trajectory::decade_times() const {
   return out;
 }
 
-namespace {
-struct LifetimeRoot {
-  const MassLoss* ml;
-  const TrajectoryOptions* options;
-  double ln_target;
-};
-double lifetime_residual(double ln_mass, void* p) {
-  const auto* r = static_cast<const LifetimeRoot*>(p);
-  return std::log(Trajectory(*r->ml, std::exp(ln_mass), *r->options).lifetime()) - r->ln_target;
-}
-}  // namespace
-
-double mass_with_lifetime(const MassLoss& ml, double lifetime, const TrajectoryOptions& options) {
+double mass_with_lifetime_of(const std::function<double(double)>& lifetime_of, double lifetime,
+                             const std::string& hole) {
   if (!(lifetime > 0) || !std::isfinite(lifetime))
     throw InputError(fmt::format("lifetime {} GeV^-1: expected a finite time > 0", lifetime));
-  LifetimeRoot root{&ml, &options, std::log(lifetime)};
-  double lo = std::log(1e-5 * units::gram), hi = std::log(1e40 * units::gram);
-  if (lifetime_residual(lo, &root) > 0 || lifetime_residual(hi, &root) < 0)
+  const auto misfit = [&](double ln_m) { return std::log(lifetime_of(std::exp(ln_m)) / lifetime); };
+  const double lo = std::log(1e-5 * units::gram), hi = std::log(1e40 * units::gram);
+  if (misfit(lo) > 0 || misfit(hi) < 0)
     throw InputError(
-        fmt::format("lifetime {:.4g} s: no mass between 1e-5 g and 1e40 g has it; expected a lifetime "
+        fmt::format("lifetime {:.4g} s{}: no mass between 1e-5 g and 1e40 g has it; expected a lifetime "
                     "between {:.3g} s and {:.3g} s",
-                    lifetime / units::second, Trajectory(ml, std::exp(lo), options).lifetime() / units::second,
-                    Trajectory(ml, std::exp(hi), options).lifetime() / units::second));
+                    lifetime / units::second, hole, lifetime_of(std::exp(lo)) / units::second,
+                    lifetime_of(std::exp(hi)) / units::second));
   // ln M to 1e-13: the mass to about 1e-13 relative.
-  const BrentResult r = brent_root([&](double u) { return lifetime_residual(u, &root); }, lo, hi, 1e-13);
+  const BrentResult r = brent_root(misfit, lo, hi, 1e-13);
   if (r.converged) return std::exp(r.x);
-  throw NumericalError("lifetime root (GSL Brent)",
-                       fmt::format("no convergence: ln M in [{}, {}] after 200 iterations", r.lower, r.upper));
+  throw NumericalError("lifetime root (GSL Brent)", fmt::format("no convergence{}: ln M in [{}, {}] after 200 iterations",
+                                                                hole, r.lower, r.upper));
+}
+
+double mass_with_lifetime(const MassLoss& ml, double lifetime, const TrajectoryOptions& options) {
+  return mass_with_lifetime_of([&](double m) { return Trajectory(ml, m, options).lifetime(); }, lifetime, "");
 }
 
 }  // namespace ember::evaporation

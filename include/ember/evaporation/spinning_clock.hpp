@@ -50,8 +50,7 @@ class SpinningClock {
 };
 
 // The initial mass of a hole born at a* = hole_spin whose lifetime on this clock is `lifetime`
-// (GeV^-1), by Brent's method (GSL) on ln M over [1e-5, 1e40] g. Throws InputError when no mass
-// there has it, NumericalError when the root does not converge.
+// (GeV^-1), as mass_with_lifetime (trajectory.hpp) on this clock.
 double spinning_mass_with_lifetime(const KerrMassLoss& kerr, const MassLoss& schwarzschild, double hole_spin,
                                    double lifetime, const TrajectoryOptions& options = {});
 

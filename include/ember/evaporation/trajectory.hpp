@@ -12,6 +12,7 @@
 // tau = M^3 / (3 alpha(M_cut)), flagged in every result.
 #pragma once
 
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -72,5 +73,10 @@ class Trajectory {
 // The initial mass whose lifetime is `lifetime` (GeV^-1), by Brent's method (GSL) on ln M.
 // Throws NumericalError if it does not converge, InputError if no mass in [1e-5, 1e40] g has it.
 double mass_with_lifetime(const MassLoss& mass_loss, double lifetime, const TrajectoryOptions& options = {});
+
+// The same root for any clock: `lifetime_of` maps an initial mass (GeV) to its lifetime (GeV^-1);
+// `hole` is said in the errors after the lifetime (" at a* = 0.9", or empty).
+double mass_with_lifetime_of(const std::function<double(double)>& lifetime_of, double lifetime,
+                             const std::string& hole);
 
 }  // namespace ember::evaporation
