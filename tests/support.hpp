@@ -7,8 +7,8 @@
 #include "ember/cosmology/background.hpp"
 #include "ember/evaporation/mass_loss.hpp"
 #include "ember/higgs/potential.hpp"
-#include "ember/tunnelling/action_table.hpp"
 #include "ember/scenario/scenario.hpp"
+#include "ember/tunnelling/action_table.hpp"
 
 namespace ember::testing {
 

@@ -22,9 +22,9 @@
 namespace ember::evaporation {
 
 namespace {
-using units::pi;
 using kernel_grid::spin_index;
 using kernel_grid::spin_order;
+using units::pi;
 
 // The kernels' grid in the cut x_c: v = kernel_grid::v_of(x_c), as the Schwarzschild kernels,
 // from kerr_cut_min (below it J(x_c) = J(kerr_cut_min): the part cut off is O(x_c^3) of a power

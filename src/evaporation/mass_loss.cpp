@@ -21,10 +21,10 @@
 namespace ember::evaporation {
 
 namespace {
-using units::pi;
 using kernel_grid::a_of;
 using kernel_grid::spin_order;
 using kernel_grid::v_of;
+using units::pi;
 
 // 1/(e^{8 pi x} -+ 1), minus for bosons.
 double thermal(double x, bool fermion) {

@@ -4,7 +4,6 @@
 
 #include <cmath>
 
-
 namespace ember::evaporation {
 
 SpinningClock::SpinningClock(const KerrMassLoss& kerr, const MassLoss& schwarzschild, double initial_mass,
@@ -63,9 +62,8 @@ double SpinningClock::evaporation_rate(double mass) const {
 
 double spinning_mass_with_lifetime(const KerrMassLoss& kerr, const MassLoss& ml, double hole_spin, double lifetime,
                                    const TrajectoryOptions& options) {
-  return mass_with_lifetime_of(
-      [&](double m) { return SpinningClock(kerr, ml, m, hole_spin, options).lifetime(); }, lifetime,
-      fmt::format(" at a* = {}", hole_spin));
+  return mass_with_lifetime_of([&](double m) { return SpinningClock(kerr, ml, m, hole_spin, options).lifetime(); },
+                               lifetime, fmt::format(" at a* = {}", hole_spin));
 }
 
 }  // namespace ember::evaporation

@@ -135,8 +135,8 @@ double mass_with_lifetime_of(const std::function<double(double)>& lifetime_of, d
   // ln M to 1e-13: the mass to about 1e-13 relative.
   const BrentResult r = brent_root(misfit, lo, hi, 1e-13);
   if (r.converged) return std::exp(r.x);
-  throw NumericalError("lifetime root (GSL Brent)", fmt::format("no convergence{}: ln M in [{}, {}] after 200 iterations",
-                                                                hole, r.lower, r.upper));
+  throw NumericalError("lifetime root (GSL Brent)",
+                       fmt::format("no convergence{}: ln M in [{}, {}] after 200 iterations", hole, r.lower, r.upper));
 }
 
 double mass_with_lifetime(const MassLoss& ml, double lifetime, const TrajectoryOptions& options) {

@@ -12,8 +12,8 @@
 #include "ember/evaporation/budget.hpp"
 #include "ember/evaporation/kerr_trajectory.hpp"
 #include "ember/evaporation/spinning_clock.hpp"
-#include "ember/greybody/kerr_table.hpp"
 #include "ember/evaporation/trajectory.hpp"
+#include "ember/greybody/kerr_table.hpp"
 
 namespace ember::python {
 
@@ -156,8 +156,8 @@ class Evaporation {
           "greybody_argument momentum: not with hole_spin; expected energy (the Kerr rates take the greybody factors "
           "at the energy)");
     if (!kerr_) {
-      const greybody::KerrTable t = kerr_table_ ? greybody::load_kerr_table(*kerr_table_)
-                                                : greybody::load_default_kerr_table();
+      const greybody::KerrTable t =
+          kerr_table_ ? greybody::load_kerr_table(*kerr_table_) : greybody::load_default_kerr_table();
       py::gil_scoped_release unlocked;
       kerr_ = std::make_shared<const KerrMassLoss>(t, mass_loss_->particles(), mass_loss_->options());
     }
