@@ -5,6 +5,7 @@
 
 #include <cmath>
 #include <memory>
+#include <mutex>
 #include <optional>
 
 #include "bindings.hpp"
@@ -147,19 +148,23 @@ class Evaporation {
   TrajectoryOptions trajectory_;
   std::optional<std::string> kerr_table_;
   mutable std::shared_ptr<const KerrMassLoss> kerr_;  // built on the first spinning call (seconds)
+  mutable std::mutex kerr_mutex_;                     // guards kerr_: the build runs without the GIL
 
-  // The Kerr rates over the same species and options; a* must lie on the Kerr table. Called with
-  // the GIL held, which serialises the first build.
+  // The Kerr rates over the same species and options; a* must lie on the Kerr table.
   const KerrMassLoss& kerr_rates(double hole_spin) const {
     if (mass_loss_->options().argument != GreybodyArgument::energy)
       throw InputError(
           "greybody_argument momentum: not with hole_spin; expected energy (the Kerr rates take the greybody factors "
           "at the energy)");
-    if (!kerr_) {
-      const greybody::KerrTable t =
-          kerr_table_ ? greybody::load_kerr_table(*kerr_table_) : greybody::load_default_kerr_table();
+    {
+      // The GIL first, then the lock: a thread waiting for the lock never holds the GIL.
       py::gil_scoped_release unlocked;
-      kerr_ = std::make_shared<const KerrMassLoss>(t, mass_loss_->particles(), mass_loss_->options());
+      const std::lock_guard<std::mutex> lock(kerr_mutex_);
+      if (!kerr_) {
+        const greybody::KerrTable t =
+            kerr_table_ ? greybody::load_kerr_table(*kerr_table_) : greybody::load_default_kerr_table();
+        kerr_ = std::make_shared<const KerrMassLoss>(t, mass_loss_->particles(), mass_loss_->options());
+      }
     }
     const double top = kerr_->hole_spins().back();
     if (!(hole_spin >= 0 && hole_spin <= top))
