@@ -155,7 +155,6 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
   const cosmology::Background background(s.cosmology, s.dof_table ? cosmology::DegreesOfFreedom::load(*s.dof_table)
                                                                   : cosmology::DegreesOfFreedom::load_default());
   const evaporation::MassLoss mass_loss = mass_loss_for(s, o, out);
-  out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);
   for (const Prescription p : s.tunnelling.prescriptions) {
     PrescriptionOutcome outcome;
     outcome.prescription = p;
@@ -169,6 +168,8 @@ JobResults run_job(const Scenario& s, const JobOptions& o) {
     for (const auto& n : spins.nodes) fastest = std::max(fastest, n.spin);
     out.survivors_mass =
         evaporation::spinning_mass_with_lifetime(*kerr, mass_loss, fastest, background.age(), s.evaporation.trajectory);
+  } else {
+    out.survivors_mass = evaporation::mass_with_lifetime(mass_loss, background.age(), s.evaporation.trajectory);
   }
   out.hole_spin = spins.description;
   out.spinning = spins.spinning();
