@@ -406,10 +406,11 @@ ordered_json summary_json(const scenario::LoadedScenario& l, const pipeline::Job
   j["failed_points"] = failed;
   j["survivors"] = {
       {"mass_g", r.survivors_mass / u::gram},
-      {"note",
-       std::string("holes formed heavier than this survive today; their constraint comes only from the "
-                   "evaporated low-mass tail of an extended spectrum") +
-           (r.spinning ? " (spinning holes: at the fastest spin of the distribution, which ends soonest)" : "")}};
+      {"note", std::string("holes formed heavier than this survive today; their constraint comes only from the "
+                           "evaporated low-mass tail of an extended spectrum") +
+                   (r.spinning ? " (for spinning holes the mass that ends today at the distribution's fastest spin: "
+                                 "heavier ones survive at any spin)"
+                               : "")}};
   j["timing"] = {{"seconds", r.seconds}};
   return j;
 }
@@ -470,8 +471,8 @@ std::string summary_text(const scenario::LoadedScenario& l, const pipeline::JobR
   if (!std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum))
     t += fmt::format(
         "  survivors: holes formed above {:.3g} g survive today; for them the constraint comes only from the "
-        "evaporated low-mass tail of the spectrum\n",
-        r.survivors_mass / u::gram);
+        "evaporated low-mass tail of the spectrum{}\n",
+        r.survivors_mass / u::gram, r.spinning ? " (at any spin: the mass is the fastest spin's)" : "");
   const Tightest best = tightest(r);
   const char* moved = std::holds_alternative<scenario::Monochromatic>(l.scenario.population.spectrum)
                           ? "monochromatic populations at each scan mass"
